@@ -1,0 +1,423 @@
+package saturation
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"sort"
+	"strings"
+
+	"scalerisk/water"
+)
+
+// CarbonateMode says how pH and inorganic carbon are found at the
+// temperature of evaluation.
+type CarbonateMode int
+
+// The carbonate modes.
+const (
+	// Closed conserves inorganic carbon and alkalinity and recomputes pH:
+	// the water is sealed (a heat exchanger, a pipe, an RO concentrate).
+	Closed CarbonateMode = iota
+	// ChargeBalance finds pH from electroneutrality, conserving carbon.
+	ChargeBalance
+	// FixedPH holds pH at Options.PH, conserving carbon (alkalinity follows).
+	FixedPH
+	// FixedPCO2 holds the CO2 partial pressure at 10^Options.LogPCO2 atm and
+	// conserves alkalinity (carbon follows): a water open to a gas phase,
+	// such as a cooling tower open to air.
+	FixedPCO2
+)
+
+// LogPCO2Air is log10 of the CO2 partial pressure of air, atm, used when
+// FixedPCO2 is asked for without a value: 10^−3.4 atm (about 400 ppm).
+const LogPCO2Air = -3.4
+
+// Options configures a speciation. The zero value evaluates the sample at
+// its own temperature, closed carbonate system, activity model chosen
+// automatically, with the embedded thermodynamic table.
+type Options struct {
+	// Activity is the activity model; Auto chooses by ionic strength.
+	Activity ActivityModel
+	// AtTemperature, when true, evaluates at Temperature °C instead of the
+	// sample's own temperature.
+	AtTemperature bool
+	Temperature   float64
+	// Carbonate is the carbonate mode; PH and LogPCO2 serve FixedPH and
+	// FixedPCO2 (LogPCO2 0 means air, LogPCO2Air).
+	Carbonate CarbonateMode
+	PH        float64
+	LogPCO2   float64
+	// Model is the reduced thermodynamic table; nil means DefaultModel.
+	Model *Model
+}
+
+// SpeciesResult is one aqueous species at equilibrium.
+type SpeciesResult struct {
+	Name     string  `json:"name"`
+	Molality float64 `json:"molality"` // mol/kg of water
+	Gamma    float64 `json:"gamma"`    // activity coefficient
+	Activity float64 `json:"activity"`
+}
+
+// MineralResult is the saturation state of one mineral.
+type MineralResult struct {
+	Name    string
+	Formula string
+	// SI is the saturation index log10(IAP/Ksp): 0 at equilibrium, positive
+	// where the water is supersaturated.
+	SI     float64
+	LogIAP float64
+	LogK   float64 // log10 Ksp at the temperature of evaluation
+	Source string
+}
+
+// Result is the equilibrium state of one water at one temperature.
+type Result struct {
+	Name          string
+	Temperature   float64 // °C
+	PH            float64 // −log10 a(H+), computed or fixed
+	IonicStrength float64 // mol/kg
+	Activity      ActivityModel
+	WaterActivity float64
+	// Alkalinity is the titration alkalinity, eq/kg of water; Carbon the
+	// total inorganic carbon, mol/kg of water.
+	Alkalinity float64
+	Carbon     float64
+	// LogPCO2 is log10 of the CO2 partial pressure, atm, in equilibrium with
+	// the water; NaN when the water holds no carbon.
+	LogPCO2 float64
+	// ChargeBalance is 100·Σz·m/Σ|z|·m over all species, percent.
+	ChargeBalance float64
+	// Analysis is the water at the state evaluated, with inorganic carbon
+	// fixed (Totals[C], CarbonKnown) and pH and alkalinity as computed.
+	Analysis   water.Analysis
+	Species    []SpeciesResult // by decreasing molality
+	Minerals   []MineralResult // table order; minerals with an absent component are left out
+	Iterations int
+	Warnings   []string
+}
+
+// SI returns the saturation index of mineral name and whether it was
+// computed.
+func (r *Result) SI(name string) (float64, bool) {
+	for _, m := range r.Minerals {
+		if m.Name == name {
+			return m.SI, true
+		}
+	}
+	return 0, false
+}
+
+// Molality returns the molality of species name, mol/kg (0 when absent).
+func (r *Result) Molality(name string) float64 {
+	for _, s := range r.Species {
+		if s.Name == name {
+			return s.Molality
+		}
+	}
+	return 0
+}
+
+// Speciator speciates waters with one model, reusing its solver so that a
+// series of related waters (a temperature sweep, a dose search) warm-starts
+// from the previous solution. Not safe for concurrent use.
+type Speciator struct {
+	model  *Model
+	solver *Solver
+}
+
+// NewSpeciator returns a Speciator for model m (nil means DefaultModel).
+func NewSpeciator(m *Model) *Speciator {
+	if m == nil {
+		m = DefaultModel()
+	}
+	return &Speciator{model: m, solver: NewSolver(m)}
+}
+
+// Speciate computes the equilibrium state of water a under opt. It is
+// NewSpeciator(opt.Model).Speciate(a, opt).
+func Speciate(a water.Analysis, opt Options) (*Result, error) {
+	return NewSpeciator(opt.Model).Speciate(a, opt)
+}
+
+// Temperature limits of the tool, °C: data are fitted at 1 atm to 90–100 °C;
+// to 150 °C results carry an extrapolation warning; beyond it no result.
+const (
+	maxTemperature   = 150
+	warnTemperature  = 100
+	minTemperature   = 0
+	lowestPHAccepted = 0
+)
+
+// Speciate computes the equilibrium state of water a under opt, in two
+// steps the way a practitioner measures a water:
+//
+//  1. At the pH measurement temperature, the measured pH with the measured
+//     alkalinity fixes total inorganic carbon (the titration alkalinity is
+//     corrected for hydroxide, silicate, phosphate and borate species through
+//     the full speciation); with carbon reported directly, pH fixes
+//     alkalinity instead.
+//  2. At the evaluation temperature the water is speciated under
+//     opt.Carbonate: closed (carbon and alkalinity conserved, pH recomputed),
+//     charge balance, fixed pH or fixed CO2 partial pressure.
+//
+// A water with no pH but known carbon is solved by alkalinity (or charge
+// balance without alkalinity). Errors say which sample and why.
+func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
+	if opt.Model != nil && opt.Model != sp.model {
+		sp.model, sp.solver = opt.Model, NewSolver(opt.Model)
+	}
+	t := a.Temperature
+	if opt.AtTemperature {
+		t = opt.Temperature
+	}
+	if math.IsNaN(t) || t < minTemperature || t > maxTemperature {
+		return nil, fmt.Errorf("%s: temperature %.4g °C is outside 0–%d °C", a.Name, t, maxTemperature)
+	}
+	if opt.Activity == Pitzer {
+		return nil, fmt.Errorf("%s: the Pitzer activity model is not available yet; use truesdell-jones", a.Name)
+	}
+	var warnings []string
+	if t > warnTemperature {
+		warnings = append(warnings, fmt.Sprintf("%.4g °C is above 100 °C: constants are extrapolated beyond their fitted range at 1 atm", t))
+	}
+	res, err := sp.speciateModel(a, opt, t, opt.Activity)
+	if err == nil && opt.Activity == Auto && res.Activity == Davies && res.IonicStrength > daviesAutoLimit {
+		res, err = sp.speciateModel(a, opt, t, TruesdellJones)
+	}
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", a.Name, err)
+	}
+	res.Warnings = append(warnings, res.Warnings...)
+	return res, nil
+}
+
+func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, model ActivityModel) (*Result, error) {
+	if model == Auto {
+		model = Davies
+	}
+	m := sp.model
+	s := sp.solver
+	totals := make([]float64, len(m.masters))
+	for c := range water.NumComponents {
+		if c == water.C {
+			continue
+		}
+		totals[m.compMaster[c]] = a.Totals[c]
+	}
+	cj := m.compMaster[water.C]
+	hasAlk := !math.IsNaN(a.Alkalinity)
+	hasPH := !math.IsNaN(a.PH)
+	var warnings []string
+	alk := a.Alkalinity
+	carbon := a.Totals[water.C]
+	carbonKnown := a.CarbonKnown
+
+	// Step 1: fix carbon (or alkalinity) at the pH measurement temperature.
+	var fixedAt *Result
+	if hasPH {
+		if a.PH < 0 || a.PH > 14 {
+			return nil, fmt.Errorf("pH %.4g is outside 0–14", a.PH)
+		}
+		p := problem{t: a.PHTemperature, model: model, totals: totals, hRow: rowFixed,
+			lnaH: -a.PH * math.Ln10, cRow: rowAbsent}
+		switch {
+		case hasAlk && (!carbonKnown || carbon == 0):
+			p.cRow = rowAlk
+			p.alk = alk
+		case carbonKnown && carbon > 0:
+			totals[cj] = carbon
+			p.cRow = rowMass
+		}
+		if err := s.solve(p, true); err != nil {
+			return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
+		}
+		r := sp.collect(a, p)
+		if p.cRow == rowAlk {
+			if carbonKnown && carbon > 0 && math.Abs(r.Carbon-carbon) > 0.1*carbon {
+				warnings = append(warnings, fmt.Sprintf(
+					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
+					1000*carbon, 1000*r.Carbon))
+			}
+			if r.Carbon < 0 {
+				return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: no positive inorganic carbon fits them", a.PH, 1000*alk)
+			}
+		}
+		carbon, carbonKnown = r.Carbon, true
+		alk = r.Alkalinity
+		fixedAt = r
+	} else if hasAlk && !carbonKnown && alk != 0 {
+		return nil, errors.New("pH is needed to find inorganic carbon from alkalinity (or report DIC)")
+	}
+
+	// Step 2: evaluate at t.
+	p := problem{t: t, model: model, totals: totals, cRow: rowAbsent}
+	if carbonKnown && carbon > 0 {
+		totals[cj] = carbon
+		p.cRow = rowMass
+	}
+	alkKnown := hasAlk || fixedAt != nil
+	switch opt.Carbonate {
+	case Closed:
+		if fixedAt != nil && t == a.PHTemperature {
+			fixedAt.Warnings = append(warnings, fixedAt.Warnings...)
+			return sp.finish(fixedAt, a, t), nil
+		}
+		if alkKnown {
+			p.hRow, p.alk = rowAlk, alk
+		} else {
+			p.hRow = rowCharge
+			warnings = append(warnings, "pH and alkalinity unknown: pH from charge balance")
+		}
+	case ChargeBalance:
+		p.hRow = rowCharge
+	case FixedPH:
+		if opt.PH < 0 || opt.PH > 14 {
+			return nil, fmt.Errorf("fixed pH %.4g is outside 0–14", opt.PH)
+		}
+		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
+	case FixedPCO2:
+		g, ok := m.gasIdx["CO2(g)"]
+		if !ok {
+			return nil, errors.New("thermodynamic table has no CO2(g)")
+		}
+		if !alkKnown {
+			return nil, errors.New("alkalinity is needed for equilibrium with a CO2 partial pressure")
+		}
+		logP := opt.LogPCO2
+		if logP == 0 {
+			logP = LogPCO2Air
+		}
+		p.hRow, p.alk = rowAlk, alk
+		p.cRow, p.gas, p.logP = rowGas, g, logP
+	}
+	if err := s.solve(p, true); err != nil {
+		return nil, err
+	}
+	r := sp.collect(a, p)
+	r.Warnings = append(warnings, r.Warnings...)
+	return sp.finish(r, a, t), nil
+}
+
+// collect turns the solver state into a Result.
+func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
+	s, m := sp.solver, sp.model
+	r := &Result{Name: a.Name, Temperature: p.t, IonicStrength: s.I, Activity: p.model,
+		WaterActivity: math.Exp(s.lnaw), Iterations: s.iterations, LogPCO2: math.NaN()}
+	r.PH = -(s.lnm[0] + s.lng[0]) / math.Ln10
+	cj := m.compMaster[water.C]
+	var zsum, zabs float64
+	for i := range m.species {
+		if !s.live[i] {
+			continue
+		}
+		spc := &m.species[i]
+		mi := s.ms[i]
+		r.Alkalinity += spc.alk * mi
+		for _, nt := range spc.nu {
+			if nt.j == cj {
+				r.Carbon += nt.coef * mi
+			}
+		}
+		zsum += spc.act.z * mi
+		zabs += math.Abs(spc.act.z) * mi
+		g := math.Exp(s.lng[i])
+		r.Species = append(r.Species, SpeciesResult{Name: spc.name, Molality: mi, Gamma: g, Activity: mi * g})
+	}
+	if zabs > 0 {
+		r.ChargeBalance = 100 * zsum / zabs
+	}
+	sort.SliceStable(r.Species, func(i, j int) bool { return r.Species[i].Molality > r.Species[j].Molality })
+	// log a of each master.
+	loga := make([]float64, len(m.masters))
+	present := make([]bool, len(m.masters))
+	for j := range m.masters {
+		if s.live[j] {
+			loga[j] = (s.lnm[j] + s.lng[j]) / math.Ln10
+			present[j] = true
+		}
+	}
+	logaw := s.lnaw / math.Ln10
+	if g, ok := m.gasIdx["CO2(g)"]; ok && present[cj] && r.Carbon > 0 {
+		gp := &m.gases[g]
+		v := gp.nuW*logaw - evalLogK(gp.logK, p.t)
+		for _, nt := range gp.nu {
+			v += nt.coef * loga[nt.j]
+		}
+		r.LogPCO2 = v
+	}
+	var extrapolated, constant []string
+	for i := range m.minerals {
+		mn := &m.minerals[i]
+		ok := true
+		for _, nt := range mn.nu {
+			if !present[nt.j] || (nt.j == cj && r.Carbon <= 0) {
+				ok = false
+				break
+			}
+		}
+		if !ok {
+			continue
+		}
+		logK := evalLogK(mn.logK, p.t)
+		iap := mn.nuW * logaw
+		for _, nt := range mn.nu {
+			iap += nt.coef * loga[nt.j]
+		}
+		// Report log IAP and log Ksp of the mineral's own reaction.
+		own := mn.entry.LogK(p.t)
+		r.Minerals = append(r.Minerals, MineralResult{Name: mn.name, Formula: mn.formula,
+			SI: iap - logK, LogIAP: iap - logK + own, LogK: own, Source: mn.entry.Source})
+		if e, bad := outOfRange(mn.logK, p.t); bad {
+			extrapolated = append(extrapolated, fmt.Sprintf("%s (via %s, %g–%g °C)", mn.name, e.Name, e.TMin, e.TMax))
+		}
+	}
+	if math.Abs(p.t-25) > 5 {
+		for i := len(m.masters); i < len(m.species); i++ {
+			if s.live[i] && m.species[i].entry.TemperatureFunction() == "constant" && s.ms[i] > 1e-2*maxTotal(p.totals) {
+				constant = append(constant, m.species[i].name)
+			}
+		}
+	}
+	if len(extrapolated) > 0 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("log K outside its fitted temperature range at %.4g °C for: %s",
+			p.t, strings.Join(extrapolated, ", ")))
+	}
+	if len(constant) > 0 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("log K known at 25 °C only, used unchanged at %.4g °C, for significant species: %s",
+			p.t, strings.Join(constant, ", ")))
+	}
+	return r
+}
+
+func maxTotal(t []float64) float64 {
+	var m float64
+	for _, v := range t {
+		m = math.Max(m, v)
+	}
+	return m
+}
+
+// finish adds the analysis at the evaluated state and model-validity
+// warnings.
+func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
+	b := a.Clone()
+	b.Temperature = t
+	b.PH = r.PH
+	b.PHTemperature = t
+	b.Alkalinity = r.Alkalinity
+	b.Totals[water.C] = r.Carbon
+	b.CarbonKnown = true
+	if r.Carbon > 0 {
+		b.Measured[water.C] = true
+	}
+	r.Analysis = b
+	r.Temperature = t
+	if lim, ok := modelLimit[r.Activity]; ok && r.IonicStrength > lim {
+		r.Warnings = append(r.Warnings, fmt.Sprintf(
+			"ionic strength %.3g mol/kg is beyond the %s model's range (about %g mol/kg): activity coefficients are uncertain; a Pitzer model suits brines",
+			r.IonicStrength, r.Activity, lim))
+	}
+	return r
+}
