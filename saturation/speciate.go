@@ -247,7 +247,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 		carbon, carbonKnown = r.Carbon, true
 		alk = r.Alkalinity
 		fixedAt = r
-	} else if hasAlk && !carbonKnown && alk != 0 {
+	} else if hasAlk && !carbonKnown && alk != 0 && opt.Carbonate != FixedPCO2 {
 		return nil, errors.New("pH is needed to find inorganic carbon from alkalinity (or report DIC)")
 	}
 

@@ -186,7 +186,7 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 			return nil, &water.InputError{File: file, Line: line,
 				Err: fmt.Errorf("%d fields, want %d", len(rec), len(header))}
 		}
-		e, err := parseEntry(rec, col, file, line, cr)
+		e, err := parseEntry(rec, col, file, line)
 		if err != nil {
 			return nil, err
 		}
@@ -197,11 +197,10 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 	return t, nil
 }
 
-func parseEntry(rec []string, col map[string]int, file string, line int, cr *csv.Reader) (Entry, error) {
+func parseEntry(rec []string, col map[string]int, file string, line int) (Entry, error) {
 	cell := func(h string) string { return strings.TrimSpace(rec[col[h]]) }
 	bad := func(h string, err error) error {
-		_, c := cr.FieldPos(col[h])
-		return &water.InputError{File: file, Line: line, Column: c, Header: h, Value: cell(h), Err: err}
+		return &water.InputError{File: file, Line: line, Column: col[h] + 1, Header: h, Value: cell(h), Err: err}
 	}
 	num := func(h string, blank float64) (float64, error) {
 		s := cell(h)
