@@ -164,6 +164,29 @@ func logGamma(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI float6
 	return -c.A*p.z2*sqrtI/(1+c.B*p.size*sqrtI) + c.Bdot*I
 }
 
+// logGammaDeriv returns log10 γ (as logGamma) and its derivative with
+// respect to I, kg/mol.
+func logGammaDeriv(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI float64) (lg, dlg float64) {
+	if p.neutral {
+		return neutralSaltingOut * I, neutralSaltingOut
+	}
+	if sqrtI < 1e-10 {
+		sqrtI = 1e-10
+	}
+	switch m {
+	case Davies:
+		d := 1 + sqrtI
+		return -c.A * p.z2 * (sqrtI/d - 0.3*I), -c.A * p.z2 * (1/(2*sqrtI*d*d) - 0.3)
+	case TruesdellJones:
+		if p.hasTJ {
+			d := 1 + c.B*p.size*sqrtI
+			return -c.A*p.z2*sqrtI/d + p.tjB*I, -c.A*p.z2/(2*sqrtI*d*d) + p.tjB
+		}
+	}
+	d := 1 + c.B*p.size*sqrtI
+	return -c.A*p.z2*sqrtI/d + c.Bdot*I, -c.A*p.z2/(2*sqrtI*d*d) + c.Bdot
+}
+
 // waterActivity returns the activity of water from the sum of molalities of
 // solute species, mol/kg: a_w = 1 − 0.017 Σm.
 //

@@ -1,10 +1,11 @@
 package saturation
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
-	"sort"
+	"slices"
 	"strings"
 
 	"scalerisk/water"
@@ -183,7 +184,9 @@ func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 		warnings = append(warnings, fmt.Sprintf("%.4g °C is above 100 °C: constants are extrapolated beyond their fitted range at 1 atm", t))
 	}
 	res, err := sp.speciateModel(a, opt, t, opt.Activity)
-	if err == nil && opt.Activity == Auto && res.Activity == Davies && res.IonicStrength > daviesAutoLimit {
+	if opt.Activity == Auto && (err != nil || res.IonicStrength > daviesAutoLimit) {
+		// Davies is for fresh waters; beyond 0.1 mol/kg (or where its
+		// −0.3·I term drives the solution away) Truesdell–Jones takes over.
 		res, err = sp.speciateModel(a, opt, t, TruesdellJones)
 	}
 	if err != nil {
@@ -303,7 +306,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 // collect turns the solver state into a Result.
 func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 	s, m := sp.solver, sp.model
-	r := &Result{Name: a.Name, Temperature: p.t, IonicStrength: s.I, Activity: p.model,
+	r := &Result{Name: a.Name, Temperature: p.t, IonicStrength: math.Exp(s.lnI), Activity: p.model,
 		WaterActivity: math.Exp(s.lnaw), Iterations: s.iterations, LogPCO2: math.NaN()}
 	r.PH = -(s.lnm[0] + s.lng[0]) / math.Ln10
 	cj := m.compMaster[water.C]
@@ -328,7 +331,7 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 	if zabs > 0 {
 		r.ChargeBalance = 100 * zsum / zabs
 	}
-	sort.SliceStable(r.Species, func(i, j int) bool { return r.Species[i].Molality > r.Species[j].Molality })
+	slices.SortStableFunc(r.Species, func(x, y SpeciesResult) int { return cmp.Compare(y.Molality, x.Molality) })
 	// log a of each master.
 	loga := make([]float64, len(m.masters))
 	present := make([]bool, len(m.masters))
