@@ -10,7 +10,7 @@ import (
 
 // TestJacobianFD checks the analytic Jacobian of the solver (including the
 // dependence of every activity coefficient on ionic strength) against
-// central finite differences, away from the solution, for two activity
+// forward finite differences, away from the solution, for two activity
 // models and two ways of fixing H[+].
 func TestJacobianFD(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))

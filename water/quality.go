@@ -1,0 +1,520 @@
+package water
+
+import (
+	"encoding/csv"
+	"fmt"
+	"math"
+	"strings"
+	"sync"
+
+	"github.com/gocarina/gocsv"
+
+	"scalerisk/data"
+)
+
+// sm1030E is the source string of the Standard Methods correctness checks.
+// The criteria are quoted from memory, not checked against the current
+// edition.
+const sm1030E = "Standard Methods for the Examination of Water and Wastewater, 1030 E \"Checking analyses' correctness\" (from memory)"
+
+// QualityCriterion is one acceptance criterion for the correctness of a
+// laboratory analysis, with the range a checked value must fall in and where
+// the criterion comes from, so that a report can print it.
+type QualityCriterion struct {
+	Name    string // short key, e.g. "ion-balance-3-10"
+	Check   string // the quantity checked, in words
+	Applies string // when it applies, in words; empty when always
+	Limit   string // the acceptable range in words, e.g. "±2 %"
+	// Min and Max bound the acceptable checked value, inclusive, in Unit.
+	Min, Max float64
+	Unit     string // "meq/L", "%", or "" for a ratio
+	// AnionSumMin and AnionSumMax (meq/L) select the ion-balance criterion
+	// by anion sum: it applies when the sum is in (AnionSumMin, AnionSumMax],
+	// the first range including 0. Both are 0 for the other criteria.
+	AnionSumMin, AnionSumMax float64
+	Source                   string
+}
+
+// Accepts reports whether v lies in [c.Min, c.Max]. A relative slack of
+// 1e-9 absorbs floating-point rounding of values on a boundary; NaN is never
+// accepted.
+func (c QualityCriterion) Accepts(v float64) bool {
+	if math.IsNaN(v) {
+		return false
+	}
+	slack := 1e-9 * math.Max(math.Abs(c.Min), math.Abs(c.Max))
+	return v >= c.Min-slack && v <= c.Max+slack
+}
+
+// qualityCriteria is the table behind QualityCriteria. It is never modified.
+var qualityCriteria = []QualityCriterion{
+	{Name: "ion-balance-0-3", Check: "cation sum − anion sum", Applies: "anion sum 0–3.0 meq/L",
+		Limit: "±0.2 meq/L", Min: -0.2, Max: 0.2, Unit: "meq/L", AnionSumMin: 0, AnionSumMax: 3, Source: sm1030E},
+	{Name: "ion-balance-3-10", Check: "ion balance 100·(cations − anions)/(cations + anions)", Applies: "anion sum 3.0–10.0 meq/L",
+		Limit: "±2 %", Min: -2, Max: 2, Unit: "%", AnionSumMin: 3, AnionSumMax: 10, Source: sm1030E},
+	{Name: "ion-balance-10-800", Check: "ion balance 100·(cations − anions)/(cations + anions)", Applies: "anion sum 10–800 meq/L",
+		Limit: "±5 %", Min: -5, Max: 5, Unit: "%", AnionSumMin: 10, AnionSumMax: 800, Source: sm1030E},
+	{Name: "tds-ratio", Check: "measured TDS / calculated TDS", Applies: "TDS measured",
+		Limit: "1.0–1.2", Min: 1.0, Max: 1.2, Source: sm1030E},
+	{Name: "ec-ratio", Check: "measured EC / calculated EC", Applies: "EC measured",
+		Limit: "0.9–1.1", Min: 0.9, Max: 1.1, Source: sm1030E},
+	{Name: "cation-sum-ec", Check: "100 × cation sum (meq/L) / measured EC (µS/cm)", Applies: "EC measured",
+		Limit: "0.9–1.1", Min: 0.9, Max: 1.1, Source: sm1030E},
+	{Name: "anion-sum-ec", Check: "100 × anion sum (meq/L) / measured EC (µS/cm)", Applies: "EC measured",
+		Limit: "0.9–1.1", Min: 0.9, Max: 1.1, Source: sm1030E},
+	{Name: "tds-ec", Check: "measured TDS (mg/L) / measured EC (µS/cm)", Applies: "TDS and EC measured",
+		Limit: "0.55–0.7", Min: 0.55, Max: 0.7, Source: sm1030E},
+	{Name: "calculated-tds-ec", Check: "calculated TDS (mg/L) / measured EC (µS/cm)", Applies: "EC measured",
+		Limit: "0.55–0.7", Min: 0.55, Max: 0.7, Source: sm1030E},
+}
+
+// QualityCriteria returns the acceptance criteria Quality applies, in a fixed
+// order: the three ion-balance criteria by anion sum, then the TDS and
+// conductivity ratios. The slice is a fresh copy.
+//
+// References: Standard Methods for the Examination of Water and Wastewater,
+// 1030 E "Checking analyses' correctness" (APHA/AWWA/WEF), from memory.
+func QualityCriteria() []QualityCriterion {
+	return append([]QualityCriterion(nil), qualityCriteria...)
+}
+
+// BalanceCriterion returns the ion-balance criterion of Standard Methods
+// 1030 E that applies to an anion sum of anionSum meq/L: the absolute
+// criterion (±0.2 meq/L) for 0–3.0 meq/L, ±2 % for more than 3.0 up to 10,
+// ±5 % for more than 10 up to 800 (a sum on a boundary takes the lower range).
+// Above 800 meq/L, or for a negative or NaN sum, no criterion applies and ok
+// is false; the ±5 % criterion is then returned as the nearest one.
+func BalanceCriterion(anionSum float64) (c QualityCriterion, ok bool) {
+	for _, c := range qualityCriteria[:3] {
+		if anionSum >= c.AnionSumMin && anionSum <= c.AnionSumMax &&
+			(anionSum > c.AnionSumMin || c.AnionSumMin == 0) {
+			return c, true
+		}
+	}
+	return qualityCriteria[2], false
+}
+
+// QualityCheck is the outcome of one criterion for one analysis.
+type QualityCheck struct {
+	Criterion QualityCriterion
+	Value     float64 // the checked value in Criterion.Unit; NaN when not computed
+	Done      bool    // false when the data the check needs are missing
+	Pass      bool    // false when not Done
+}
+
+// Quality holds the data-quality checks of one analysis. Sums and TDS are per
+// litre of solution (the analysis' WaterPerLitre converts from mol/kg of
+// water); conductivities are at 25 °C.
+type Quality struct {
+	// Cations and Anions are the equivalent sums, meq/L. Cations count Ca,
+	// Mg, Na, K, Ba, Sr, Fe(II) and Mn(II); anions count Cl, SO4, NO3, F
+	// and the total alkalinity as anion equivalents (a negative alkalinity,
+	// mineral acidity, counts as H+ among the cations). Si, P and B carry no
+	// charge in the balance (Component.Charge).
+	Cations, Anions float64
+	// BalancePercent is 100·(Cations − Anions)/(Cations + Anions); NaN when
+	// both sums are zero.
+	BalancePercent float64
+	// BalanceLimit states the Standard Methods 1030 E criterion that applies,
+	// in words, e.g. "±2 % (anion sum 3.0–10.0 meq/L)".
+	BalanceLimit      string
+	BalanceAcceptable bool
+	// TDSCalculated is the sum of the dissolved constituents, mg/L, as they
+	// would weigh after evaporation: metals and halides as the element,
+	// sulfate as SO4, nitrate as NO3, silica as SiO2, phosphate as PO4, boron
+	// as B, and the alkalinity as carbonate, 30.0 mg per meq (bicarbonate ×
+	// 0.4917). Inorganic carbon without measured alkalinity is not counted.
+	TDSCalculated float64
+	// TDSMeasured is the laboratory's TDS, mg/L; NaN when not given.
+	TDSMeasured float64
+	// TDSRatio is TDSMeasured/TDSCalculated; NaN when TDS was not measured.
+	TDSRatio float64
+	// ConductivityCalculated is the specific conductance, µS/cm at 25 °C,
+	// calculated from the composition (see Analysis.Quality for the method).
+	ConductivityCalculated float64
+	// ConductivityMeasured is the laboratory's EC, µS/cm at 25 °C; NaN when
+	// not given.
+	ConductivityMeasured float64
+	// ConductivityRatio is ConductivityMeasured/ConductivityCalculated; NaN
+	// when EC was not measured.
+	ConductivityRatio float64
+	// IonicStrength is ½Σ z²m, mol/kg, over the components as free ions and
+	// the alkalinity as HCO3- (the part reported as carbonate as CO3 2-, a
+	// negative alkalinity as H+). Ion pairs are not formed here.
+	IonicStrength float64
+	// IonicStrengthFromTDS is 2.5e-5 × TDS (mg/L) (Langelier 1936), using
+	// the measured TDS when given, else the calculated TDS.
+	IonicStrengthFromTDS float64
+	// IonicStrengthFromConductivity is 1.6e-5 × EC (µS/cm) (Russell 1976)
+	// from the measured EC only; NaN when EC was not measured (the
+	// calculated EC would only restate IonicStrength).
+	IonicStrengthFromConductivity float64
+	// Checks lists every criterion of QualityCriteria that applies, in that
+	// order, with its outcome; checks lacking data have Done false.
+	Checks []QualityCheck
+	// Flags are plain-language notes where a check fails, data are missing,
+	// or the ionic-strength estimates disagree by more than 30 %.
+	Flags []string
+}
+
+// Constants of the quality checks.
+const (
+	// carbonateMassPerEq is the mass of CO3 per equivalent, g/eq
+	// (60.008/2, IUPAC 2021 abridged atomic weights): alkalinity weighed as
+	// carbonate in a TDS by summation, which is the same as bicarbonate
+	// (61.016 g/eq) × 0.4917.
+	carbonateMassPerEq = 60.008 / 2
+	// tdsToIonicStrength is Langelier's (1936) I ≈ 2.5e-5 × TDS (mg/L).
+	tdsToIonicStrength = 2.5e-5
+	// ecToIonicStrength is Russell's (1976) I ≈ 1.6e-5 × EC (µS/cm).
+	ecToIonicStrength = 1.6e-5
+	// conductivityDaviesA is the Debye–Hückel A of the Davies correction in
+	// the Standard Methods conductivity calculation: 0.5 as written there
+	// (from memory); 0.5085–0.5108 at 25 °C by the full expression.
+	conductivityDaviesA = 0.5
+	// estimateDisagreement is the relative difference between ionic-strength
+	// estimates above which Quality adds a flag.
+	estimateDisagreement = 0.30
+)
+
+// Quality runs the data-quality checks of Standard Methods 1030 E on a: the
+// ion balance with the criterion chosen by anion sum, measured against
+// calculated TDS and conductivity, the ion sums and TDS against the measured
+// conductivity, and three estimates of ionic strength. A check whose data are
+// missing (TDS or EC not measured) is listed with Done false and does not
+// fail; a missing alkalinity is flagged, because the anion sum then lacks the
+// carbonate species.
+//
+// The conductivity is calculated as in Standard Methods 1030 E (from memory):
+// κ° = Σ λ°ᵢ·|zᵢ|·cᵢ with the limiting equivalent conductivities of
+// data/conductivity.csv and cᵢ in mol/L, then κ = κ°·y², where y is the
+// Davies activity coefficient of a monovalent ion,
+// log y = −0.5·(√I/(1+√I) − 0.3·I), at the molar ionic strength I. The square
+// of y stands for the fall of the ionic mobilities with concentration. It
+// suits mixed natural waters, in which pairing of divalent ions lowers the
+// conductivity further; for a pure 1:1 salt it reads low (0.001 M KCl by 5 %,
+// 0.01 M KCl by 13 %), and the Davies equation is not meant for I above about
+// 0.5 mol/kg.
+//
+// References: Standard Methods for the Examination of Water and Wastewater,
+// 1030 E (APHA/AWWA/WEF; criteria and conductivity method from memory);
+// Langelier, W.F. (1936) J. AWWA 28:1500 (I ≈ 2.5e-5·TDS); Russell, L.L.
+// (1976) thesis, Colorado School of Mines (I ≈ 1.6e-5·EC, from memory);
+// Davies, C.W. (1962) Ion Association.
+func (a Analysis) Quality() Quality {
+	nan := math.NaN()
+	q := Quality{TDSMeasured: a.MeasuredTDS, ConductivityMeasured: a.MeasuredConductivity,
+		TDSRatio: nan, ConductivityRatio: nan, IonicStrengthFromConductivity: nan}
+	wpl := a.WaterPerLitre
+	lambda := conductivities()
+
+	var kappa0, ionic float64 // κ° in µS/cm; ½Σz²m in mol/kg
+	var tds float64           // mg/L
+	for _, c := range Components() {
+		m := a.Totals[c]
+		if m == 0 || (c == C) {
+			continue
+		}
+		tds += a.MgPerLitre(c)
+		z := c.Charge()
+		if z == 0 {
+			continue
+		}
+		eq := math.Abs(z) * m * wpl * 1000 // meq/L
+		if z > 0 {
+			q.Cations += eq
+		} else {
+			q.Anions += eq
+		}
+		ionic += 0.5 * z * z * m
+		kappa0 += lambda.component[c] * eq
+	}
+	switch alk := a.Alkalinity; {
+	case math.IsNaN(alk):
+		if q.Cations+q.Anions > 0 {
+			q.Flags = append(q.Flags, "alkalinity not measured: the anion sum, TDS and conductivity lack the carbonate species")
+		}
+	case alk >= 0:
+		carb := a.CarbonateAlkalinity
+		if math.IsNaN(carb) || carb < 0 {
+			carb = 0
+		}
+		carb = math.Min(carb, alk)
+		bicarb := alk - carb
+		q.Anions += alk * wpl * 1000
+		tds += alk * wpl * carbonateMassPerEq * 1000
+		ionic += 0.5*bicarb + carb // HCO3-: ½·1²·m; CO3 2-: ½·2²·(eq/2)
+		kappa0 += (lambda.bicarbonate*bicarb + lambda.carbonate*carb) * wpl * 1000
+	default: // mineral acidity: H+
+		h := -alk
+		q.Cations += h * wpl * 1000
+		ionic += 0.5 * h
+		kappa0 += lambda.hydrogen * h * wpl * 1000
+	}
+	q.IonicStrength = ionic
+	q.TDSCalculated = tds
+
+	// Ion balance.
+	sum := q.Cations + q.Anions
+	q.BalancePercent = nan
+	if sum > 0 {
+		q.BalancePercent = 100 * (q.Cations - q.Anions) / sum
+	}
+	bal, inTable := BalanceCriterion(q.Anions)
+	q.BalanceLimit = fmt.Sprintf("%s (%s)", bal.Limit, bal.Applies)
+	if !inTable {
+		q.BalanceLimit = fmt.Sprintf("%s (anion sum above 800 meq/L: beyond the 1030 E table, nearest criterion used)", bal.Limit)
+	}
+	balValue := q.BalancePercent
+	if bal.Unit == "meq/L" {
+		balValue = q.Cations - q.Anions
+	}
+	if sum > 0 {
+		q.BalanceAcceptable = bal.Accepts(balValue)
+	}
+	q.Checks = append(q.Checks, QualityCheck{Criterion: bal, Value: balValue, Done: sum > 0, Pass: q.BalanceAcceptable})
+	switch {
+	case sum == 0:
+		q.Flags = append(q.Flags, "no ions reported: the ion balance cannot be checked")
+	case !q.BalanceAcceptable:
+		q.Flags = append(q.Flags, fmt.Sprintf(
+			"ion balance %+.1f %% (cations %.3g, anions %.3g meq/L) fails %s: an analyte may be missing or in error",
+			q.BalancePercent, q.Cations, q.Anions, q.BalanceLimit))
+	}
+
+	// Conductivity, Standard Methods 1030 E style.
+	ionicMolar := ionic * wpl
+	sq := math.Sqrt(ionicMolar)
+	logY := -conductivityDaviesA * (sq/(1+sq) - 0.3*ionicMolar)
+	y := math.Pow(10, logY)
+	q.ConductivityCalculated = kappa0 * y * y
+
+	haveTDS := !math.IsNaN(q.TDSMeasured)
+	haveEC := !math.IsNaN(q.ConductivityMeasured)
+	if haveTDS && q.TDSCalculated > 0 {
+		q.TDSRatio = q.TDSMeasured / q.TDSCalculated
+	}
+	if haveEC && q.ConductivityCalculated > 0 {
+		q.ConductivityRatio = q.ConductivityMeasured / q.ConductivityCalculated
+	}
+	tdsForI := q.TDSCalculated
+	if haveTDS {
+		tdsForI = q.TDSMeasured
+	}
+	q.IonicStrengthFromTDS = tdsToIonicStrength * tdsForI
+	if haveEC {
+		q.IonicStrengthFromConductivity = ecToIonicStrength * q.ConductivityMeasured
+	}
+
+	ratio := func(num, den float64, ok bool) (float64, bool) {
+		if !ok || den <= 0 || math.IsNaN(num) || math.IsNaN(den) {
+			return nan, false
+		}
+		return num / den, true
+	}
+	for _, c := range qualityCriteria[3:] {
+		var v float64
+		var done bool
+		switch c.Name {
+		case "tds-ratio":
+			v, done = ratio(q.TDSMeasured, q.TDSCalculated, haveTDS)
+		case "ec-ratio":
+			v, done = ratio(q.ConductivityMeasured, q.ConductivityCalculated, haveEC)
+		case "cation-sum-ec":
+			v, done = ratio(100*q.Cations, q.ConductivityMeasured, haveEC && sum > 0)
+		case "anion-sum-ec":
+			v, done = ratio(100*q.Anions, q.ConductivityMeasured, haveEC && sum > 0)
+		case "tds-ec":
+			v, done = ratio(q.TDSMeasured, q.ConductivityMeasured, haveTDS && haveEC)
+		case "calculated-tds-ec":
+			v, done = ratio(q.TDSCalculated, q.ConductivityMeasured, haveEC && sum > 0)
+		}
+		check := QualityCheck{Criterion: c, Value: v, Done: done, Pass: done && c.Accepts(v)}
+		q.Checks = append(q.Checks, check)
+		if done && !check.Pass {
+			q.Flags = append(q.Flags, qualityFlag(c, v))
+		}
+	}
+
+	// Ionic-strength estimates.
+	if q.IonicStrength > 0 {
+		source := "calculated TDS"
+		if haveTDS {
+			source = "measured TDS"
+		}
+		for _, est := range []struct {
+			name  string
+			value float64
+		}{
+			{"2.5e-5 × " + source + " (Langelier)", q.IonicStrengthFromTDS},
+			{"1.6e-5 × measured EC (Russell)", q.IonicStrengthFromConductivity},
+		} {
+			if math.IsNaN(est.value) {
+				continue
+			}
+			diff := est.value/q.IonicStrength - 1
+			if math.Abs(diff) > estimateDisagreement {
+				q.Flags = append(q.Flags, fmt.Sprintf(
+					"ionic strength %.3g mol/kg from %s differs from %.3g mol/kg from the composition by %+.0f %%",
+					est.value, est.name, q.IonicStrength, 100*diff))
+			}
+		}
+	}
+	return q
+}
+
+// qualityFlag words a failed ratio check with the usual reading of Standard
+// Methods 1030 E (from memory).
+func qualityFlag(c QualityCriterion, v float64) string {
+	low := v < c.Min
+	var hint string
+	switch c.Name {
+	case "tds-ratio":
+		if low {
+			hint = "the measured TDS is below the sum of constituents: a constituent may be overstated, or the TDS low"
+		} else {
+			hint = "the measured TDS exceeds the sum of constituents: an analyte may be missing"
+		}
+	case "ec-ratio":
+		hint = "an ion may be missing or in error, or the EC reading off"
+	case "cation-sum-ec", "anion-sum-ec":
+		hint = "the ion sum and the EC disagree: reanalyse the ions or the EC"
+	case "tds-ec":
+		hint = "measured TDS and EC disagree"
+	case "calculated-tds-ec":
+		if low {
+			hint = "the lower ion sum is suspect"
+		} else {
+			hint = "the higher ion sum is suspect"
+		}
+	}
+	return fmt.Sprintf("%s = %.3g, outside %s: %s", c.Check, v, c.Limit, hint)
+}
+
+// conductivityTable holds the limiting equivalent conductivities of
+// data/conductivity.csv, S·cm²/eq at 25 °C.
+type conductivityTable struct {
+	component                                   [NumComponents]float64
+	bicarbonate, carbonate, hydroxide, hydrogen float64
+}
+
+type conductivityRow struct {
+	Ion       string  `csv:"ion"`
+	Component string  `csv:"component"`
+	Charge    float64 `csv:"charge"`
+	Lambda    float64 `csv:"lambda_25"`
+	Source    string  `csv:"source"`
+}
+
+var defaultConductivities = sync.OnceValues(func() (*conductivityTable, error) {
+	f, err := data.FS.Open("conductivity.csv")
+	if err != nil {
+		return nil, err
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	var rows []conductivityRow
+	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
+		return nil, fmt.Errorf("data/conductivity.csv: %w", err)
+	}
+	t := &conductivityTable{}
+	var seen [NumComponents]bool
+	for _, row := range rows {
+		if row.Lambda <= 0 || strings.TrimSpace(row.Source) == "" {
+			return nil, fmt.Errorf("data/conductivity.csv: ion %q: conductivity must be positive and sourced", row.Ion)
+		}
+		if row.Component != "" {
+			c, ok := ParseComponent(row.Component)
+			if !ok {
+				return nil, fmt.Errorf("data/conductivity.csv: ion %q: unknown component %q", row.Ion, row.Component)
+			}
+			if row.Charge != c.Charge() {
+				return nil, fmt.Errorf("data/conductivity.csv: ion %q: charge %g, component %s counts %g", row.Ion, row.Charge, c, c.Charge())
+			}
+			t.component[c], seen[c] = row.Lambda, true
+			continue
+		}
+		switch row.Ion {
+		case "HCO3[-]":
+			t.bicarbonate = row.Lambda
+		case "CO3[2-]":
+			t.carbonate = row.Lambda
+		case "OH[-]":
+			t.hydroxide = row.Lambda
+		case "H[+]":
+			t.hydrogen = row.Lambda
+		default:
+			return nil, fmt.Errorf("data/conductivity.csv: ion %q has no component", row.Ion)
+		}
+	}
+	for _, c := range Components() {
+		if c.Charge() != 0 && !seen[c] {
+			return nil, fmt.Errorf("data/conductivity.csv: no conductivity for component %s", c)
+		}
+	}
+	if t.bicarbonate == 0 || t.carbonate == 0 || t.hydroxide == 0 || t.hydrogen == 0 {
+		return nil, fmt.Errorf("data/conductivity.csv: HCO3[-], CO3[2-], OH[-] and H[+] are required")
+	}
+	return t, nil
+})
+
+// conductivities returns the embedded conductivity table; a broken table is
+// a programmer's mistake.
+func conductivities() *conductivityTable {
+	t, err := defaultConductivities()
+	if err != nil {
+		panic("water: embedded conductivity table is broken: " + err.Error())
+	}
+	return t
+}
+
+// LimitingConductivity returns λ°, the limiting equivalent conductivity at
+// 25 °C in S·cm²/eq, of the ion named as in data/conductivity.csv ("Na[+]",
+// "Ca[2+]" for ½Ca²⁺, "HCO3[-]"), and false when the table has no such ion.
+//
+// References: CRC Handbook of Chemistry and Physics, "Equivalent conductivity
+// of ions at infinite dilution"; Robinson, R.A. and Stokes, R.H. (1959)
+// Electrolyte Solutions, App. 6.2 (both from memory).
+func LimitingConductivity(ion string) (float64, bool) {
+	t := conductivities()
+	switch ion {
+	case "HCO3[-]":
+		return t.bicarbonate, true
+	case "CO3[2-]":
+		return t.carbonate, true
+	case "OH[-]":
+		return t.hydroxide, true
+	case "H[+]":
+		return t.hydrogen, true
+	}
+	for _, c := range Components() {
+		if c.Charge() == 0 {
+			continue
+		}
+		if ion == conductivityIonName(c) {
+			return t.component[c], true
+		}
+	}
+	return 0, false
+}
+
+// conductivityIonName is the species name of component c's ion.
+func conductivityIonName(c Component) string {
+	name := c.String()
+	switch c {
+	case S:
+		name = "SO4"
+	case N:
+		name = "NO3"
+	}
+	z := c.Charge()
+	sign := "+"
+	if z < 0 {
+		sign = "-"
+	}
+	if math.Abs(z) == 1 {
+		return name + "[" + sign + "]"
+	}
+	return fmt.Sprintf("%s[%g%s]", name, math.Abs(z), sign)
+}
