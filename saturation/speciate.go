@@ -247,6 +247,12 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 				return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: no positive inorganic carbon fits them", a.PH, 1000*alk)
 			}
 		}
+		if co2 := r.Molality("CO2[0]"); !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 &&
+			(co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
+			warnings = append(warnings, fmt.Sprintf(
+				"reported free CO2 (%.3g mmol/kg) and the value from pH and alkalinity (%.3g mmol/kg) differ by more than a factor of 2: check the pH (free CO2 is often lost before analysis)",
+				1000*a.FreeCO2, 1000*co2))
+		}
 		carbon, carbonKnown = r.Carbon, true
 		alk = r.Alkalinity
 		fixedAt = r

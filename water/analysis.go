@@ -38,6 +38,11 @@ type Analysis struct {
 	// of water; NaN when not given.
 	CarbonateAlkalinity float64
 
+	// FreeCO2 is the free (dissolved) CO2 the laboratory reported, mol/kg of
+	// water; NaN when not reported. It is a check on the carbonate system,
+	// not a total.
+	FreeCO2 float64
+
 	// Density is the solution density, kg/L, given or estimated (see
 	// DensityEstimated).
 	Density          float64
@@ -141,7 +146,7 @@ func NewSample(name string) Sample {
 func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 	a := Analysis{Name: s.Name, Date: s.Date, Temperature: s.Temperature, PH: s.PH,
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
-		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(),
+		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
 		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity}
 	if math.IsNaN(a.Temperature) {
 		a.Temperature = 25
@@ -224,6 +229,12 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 				sumAlk += molal
 				haveSumAlk = true
 			}
+			continue
+		}
+		if am.name == "CO2" {
+			// Free CO2 is a part of inorganic carbon, not its total:
+			// kept for a consistency check once pH fixes the carbon.
+			a.FreeCO2 = molal
 			continue
 		}
 		c, _ := ParseComponent(am.comp)

@@ -73,7 +73,7 @@ var defaultAnalytes = sync.OnceValues(func() (*AnalyteTable, error) {
 		i := len(t.list) - 1
 		for _, key := range append([]string{a.Name}, a.Aliases...) {
 			key = normalizeName(key)
-			if j, dup := t.byName[key]; dup {
+			if j, dup := t.byName[key]; dup && j != i {
 				return nil, fmt.Errorf("data/analytes.csv: name %q used by %q and %q", key, t.list[j].Name, a.Name)
 			}
 			t.byName[key] = i
@@ -114,8 +114,7 @@ func (t *AnalyteTable) FormOf(comp, form string) (Analyte, bool) {
 		if a.Component != comp {
 			continue
 		}
-		name := normalizeName(a.Name)
-		if name == key || strings.HasSuffix(name, "-"+key) {
+		if normalizeName(a.Name) == key || strings.HasSuffix(strings.ToLower(a.Name), "-"+strings.ToLower(strings.TrimSpace(form))) {
 			return a, true
 		}
 		if strings.EqualFold(comp, form) && a.PerForm == 1 && a.Charge == 0 && strings.EqualFold(comp, "C") && a.Name == "DIC" {
@@ -125,14 +124,15 @@ func (t *AnalyteTable) FormOf(comp, form string) (Analyte, bool) {
 	return Analyte{}, false
 }
 
-// normalizeName folds case and drops spaces, underscores and dots, so that
-// "Total Alkalinity", "total_alkalinity" and "TOTALALKALINITY" match.
+// normalizeName folds case and drops spaces, underscores, hyphens and dots,
+// so that "Total Alkalinity", "total_alkalinity", "NO3-N" and "no3_n" match
+// their table names.
 func normalizeName(s string) string {
 	s = strings.ToLower(strings.TrimSpace(s))
 	var b strings.Builder
 	for _, r := range s {
 		switch r {
-		case ' ', '_', '.', '\t':
+		case ' ', '_', '.', '-', '\t':
 			continue
 		}
 		b.WriteRune(r)

@@ -1,10 +1,18 @@
 package water
 
-import "fmt"
+import (
+	"fmt"
+	"strings"
+	"unicode/utf8"
+)
 
 // InputError reports a bad cell, row or file of a laboratory file: where it
 // is and what is wrong, in the manner of csv.ParseError. Line and Column
 // count from 1; Line 0 means the whole file, Column 0 the whole row.
+//
+// Error prints "file:line:column: column "header": value "raw": cause",
+// leaving out the parts that are not known; the header and the raw value are
+// quoted and cut to 40 characters ("…" marks a cut).
 type InputError struct {
 	File   string // file name as given, "-" for standard input
 	Line   int    // physical line in the file
@@ -24,12 +32,38 @@ func (e *InputError) Error() string {
 	}
 	msg := where + ": "
 	if e.Header != "" {
-		msg += fmt.Sprintf("column %q: ", e.Header)
+		msg += fmt.Sprintf("column %q: ", clipText(e.Header))
 	}
 	if e.Value != "" {
-		msg += fmt.Sprintf("value %q: ", e.Value)
+		msg += fmt.Sprintf("value %q: ", clipText(e.Value))
+	}
+	if e.Err == nil {
+		return msg + "bad input"
 	}
 	return msg + e.Err.Error()
 }
 
 func (e *InputError) Unwrap() error { return e.Err }
+
+// maxQuotedRunes is the most characters of a raw value or header an error
+// message quotes.
+const maxQuotedRunes = 40
+
+// clipText returns s cut to maxQuotedRunes characters, with "…" appended
+// when it was cut. Clipping a clipped text returns it unchanged.
+func clipText(s string) string {
+	if utf8.RuneCountInString(s) <= maxQuotedRunes {
+		return s
+	}
+	var b strings.Builder
+	n := 0
+	for _, r := range s {
+		if n == maxQuotedRunes {
+			break
+		}
+		b.WriteRune(r)
+		n++
+	}
+	b.WriteString("…")
+	return b.String()
+}

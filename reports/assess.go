@@ -1,0 +1,377 @@
+package reports
+
+import (
+	"cmp"
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+	"text/tabwriter"
+
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// SampleJSON is one sample of the JSON output of assess. The key names are
+// a contract that other programs parse: extend, never rename.
+type SampleJSON struct {
+	Name                 string             `json:"name"`
+	File                 string             `json:"file,omitempty"`
+	Line                 int                `json:"line,omitempty"`
+	TemperatureC         *float64           `json:"temperature_c,omitempty"`
+	PH                   *float64           `json:"ph,omitempty"`
+	ActivityModel        string             `json:"activity_model,omitempty"`
+	IonicStrength        *float64           `json:"ionic_strength,omitempty"`
+	ChargeBalancePercent *float64           `json:"charge_balance_percent,omitempty"`
+	AlkalinityMeqPerKg   *float64           `json:"alkalinity_meq_per_kg,omitempty"`
+	LogPCO2              *float64           `json:"log_pco2,omitempty"`
+	SaturationIndex      map[string]float64 `json:"saturation_index,omitempty"`
+	RiskBand             map[string]string  `json:"risk_band,omitempty"`
+	Species              []SpeciesJSON      `json:"species,omitempty"`
+	Totals               map[string]float64 `json:"totals,omitempty"`
+	Quality              *QualityJSON       `json:"quality,omitempty"`
+	BelowDetection       []string           `json:"below_detection,omitempty"`
+	Warnings             []string           `json:"warnings"`
+	Error                *string            `json:"error"`
+}
+
+// SpeciesJSON is one aqueous species: molality in mol/kg of water.
+type SpeciesJSON struct {
+	Name     string  `json:"name"`
+	Molality float64 `json:"molality"`
+	Gamma    float64 `json:"gamma"`
+	Activity float64 `json:"activity"`
+}
+
+// QualityJSON holds the data-quality checks of one sample.
+type QualityJSON struct {
+	CationsMeqPerL                *float64 `json:"cations_meq_per_l,omitempty"`
+	AnionsMeqPerL                 *float64 `json:"anions_meq_per_l,omitempty"`
+	BalancePercent                *float64 `json:"balance_percent,omitempty"`
+	BalanceLimit                  string   `json:"balance_limit"`
+	BalanceAcceptable             bool     `json:"balance_acceptable"`
+	TDSCalculatedMgPerL           *float64 `json:"tds_calculated_mg_per_l,omitempty"`
+	TDSMeasuredMgPerL             *float64 `json:"tds_measured_mg_per_l,omitempty"`
+	ConductivityCalculated        *float64 `json:"conductivity_calculated_us_per_cm,omitempty"`
+	ConductivityMeasured          *float64 `json:"conductivity_measured_us_per_cm,omitempty"`
+	IonicStrength                 *float64 `json:"ionic_strength_composition,omitempty"`
+	IonicStrengthFromTDS          *float64 `json:"ionic_strength_from_tds,omitempty"`
+	IonicStrengthFromConductivity *float64 `json:"ionic_strength_from_conductivity,omitempty"`
+	Flags                         []string `json:"flags"`
+}
+
+// AssessJSON is the whole JSON document of assess.
+type AssessJSON struct {
+	Samples []SampleJSON `json:"samples"`
+	Caution string       `json:"caution"`
+}
+
+// Sample turns one assessment into its JSON form: values rounded for
+// display, NaN never written (the key is left out instead).
+func Sample(as saturation.Assessment) SampleJSON {
+	s := SampleJSON{Name: as.Name, File: as.File, Line: as.Line, Warnings: []string{}}
+	if as.Err != nil {
+		msg := as.Err.Error()
+		s.Error = &msg
+	}
+	if as.BadInput {
+		return s
+	}
+	q := as.Quality
+	s.ChargeBalancePercent = optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) })
+	s.Quality = qualityJSON(q)
+	s.BelowDetection = as.Input.BelowDetection
+	s.Warnings = append(s.Warnings, as.Input.Warnings...)
+	s.Totals = totals(as.Input)
+	r := as.Result
+	if r == nil {
+		return s
+	}
+	s.Totals = totals(r.Analysis)
+	s.TemperatureC = optional(r.Temperature, func(x float64) float64 { return dec(x, 2) })
+	s.PH = optional(r.PH, func(x float64) float64 { return dec(x, 3) })
+	s.ActivityModel = r.Activity.String()
+	s.IonicStrength = optional(r.IonicStrength, func(x float64) float64 { return sig(x, 4) })
+	s.AlkalinityMeqPerKg = optional(1000*r.Alkalinity, func(x float64) float64 { return sig(x, 5) })
+	s.LogPCO2 = optional(r.LogPCO2, func(x float64) float64 { return dec(x, 3) })
+	s.SaturationIndex = map[string]float64{}
+	s.RiskBand = map[string]string{}
+	for _, m := range r.Minerals {
+		s.SaturationIndex[m.Name] = dec(m.SI, 3)
+		s.RiskBand[m.Name] = saturation.RiskBand(m.Name, m.SI).String()
+	}
+	for _, sp := range r.Species {
+		if sp.Molality <= 0 || math.IsNaN(sp.Molality) {
+			continue
+		}
+		s.Species = append(s.Species, SpeciesJSON{Name: sp.Name, Molality: sig(sp.Molality, 5),
+			Gamma: sig(sp.Gamma, 5), Activity: sig(sp.Activity, 5)})
+	}
+	s.Warnings = append(s.Warnings, r.Warnings...)
+	return s
+}
+
+func qualityJSON(q water.Quality) *QualityJSON {
+	mgl := func(x float64) float64 { return sig(x, 4) }
+	return &QualityJSON{
+		CationsMeqPerL:                optional(q.Cations, func(x float64) float64 { return sig(x, 4) }),
+		AnionsMeqPerL:                 optional(q.Anions, func(x float64) float64 { return sig(x, 4) }),
+		BalancePercent:                optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) }),
+		BalanceLimit:                  q.BalanceLimit,
+		BalanceAcceptable:             q.BalanceAcceptable,
+		TDSCalculatedMgPerL:           optional(q.TDSCalculated, mgl),
+		TDSMeasuredMgPerL:             optional(q.TDSMeasured, mgl),
+		ConductivityCalculated:        optional(q.ConductivityCalculated, mgl),
+		ConductivityMeasured:          optional(q.ConductivityMeasured, mgl),
+		IonicStrength:                 optional(q.IonicStrength, mgl),
+		IonicStrengthFromTDS:          optional(q.IonicStrengthFromTDS, mgl),
+		IonicStrengthFromConductivity: optional(q.IonicStrengthFromConductivity, mgl),
+		Flags:                         append([]string{}, q.Flags...),
+	}
+}
+
+// totals returns mol/kg of water by element symbol for the measured
+// components, and C when inorganic carbon is known.
+func totals(a water.Analysis) map[string]float64 {
+	out := map[string]float64{}
+	for c := range water.NumComponents {
+		if c == water.C {
+			if a.CarbonKnown && a.Totals[c] > 0 {
+				out[c.String()] = sig(a.Totals[c], 6)
+			}
+			continue
+		}
+		if a.Measured[c] || a.Totals[c] > 0 {
+			out[c.String()] = sig(a.Totals[c], 6)
+		}
+	}
+	return out
+}
+
+// WriteAssessments writes assessments in format f.
+func WriteAssessments(w io.Writer, f Format, as []saturation.Assessment) error {
+	switch f {
+	case JSON:
+		doc := AssessJSON{Samples: make([]SampleJSON, 0, len(as)), Caution: Caution}
+		for _, a := range as {
+			doc.Samples = append(doc.Samples, Sample(a))
+		}
+		enc := json.NewEncoder(w)
+		enc.SetIndent("", "  ")
+		enc.SetEscapeHTML(false)
+		return enc.Encode(doc)
+	case CSV:
+		return writeAssessCSV(w, as)
+	}
+	return writeAssessText(w, as)
+}
+
+// mineralOrder returns the minerals computed in any assessment, in the
+// order of first appearance (the table's order).
+func mineralOrder(as []saturation.Assessment) []string {
+	var names []string
+	seen := map[string]bool{}
+	for _, a := range as {
+		if a.Result == nil {
+			continue
+		}
+		for _, m := range a.Result.Minerals {
+			if !seen[m.Name] {
+				seen[m.Name] = true
+				names = append(names, m.Name)
+			}
+		}
+	}
+	return names
+}
+
+func formatOpt(p *float64, prec int) string {
+	if p == nil {
+		return ""
+	}
+	return strconv.FormatFloat(*p, 'f', prec, 64)
+}
+
+func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
+	minerals := mineralOrder(as)
+	cw := csv.NewWriter(w)
+	header := []string{"name", "file", "line", "temperature_c", "ph", "ionic_strength", "activity_model",
+		"charge_balance_percent", "alkalinity_meq_per_kg"}
+	for _, c := range water.Components() {
+		header = append(header, "total_"+c.String()+"_mol_per_kg")
+	}
+	for _, m := range minerals {
+		header = append(header, "si_"+m)
+	}
+	header = append(header, "error", "warnings")
+	if err := cw.Write(header); err != nil {
+		return err
+	}
+	for _, a := range as {
+		s := Sample(a)
+		row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
+			fmtG(s.IonicStrength), s.ActivityModel, formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
+		for _, c := range water.Components() {
+			if v, ok := s.Totals[c.String()]; ok {
+				row = append(row, strconv.FormatFloat(v, 'g', -1, 64))
+			} else {
+				row = append(row, "")
+			}
+		}
+		for _, m := range minerals {
+			if v, ok := s.SaturationIndex[m]; ok {
+				row = append(row, strconv.FormatFloat(v, 'f', 3, 64))
+			} else {
+				row = append(row, "")
+			}
+		}
+		errText := ""
+		if s.Error != nil {
+			errText = *s.Error
+		}
+		row = append(row, errText, strings.Join(s.Warnings, "; "))
+		if err := cw.Write(row); err != nil {
+			return err
+		}
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+func fmtG(p *float64) string {
+	if p == nil {
+		return ""
+	}
+	return strconv.FormatFloat(*p, 'g', -1, 64)
+}
+
+func writeAssessText(w io.Writer, as []saturation.Assessment) error {
+	var b strings.Builder
+	for i, a := range as {
+		if i > 0 {
+			b.WriteString("\n")
+		}
+		where := ""
+		if a.File != "" {
+			where = fmt.Sprintf("  (%s, line %d)", a.File, a.Line)
+		}
+		fmt.Fprintf(&b, "%s%s\n", a.Name, where)
+		if a.BadInput {
+			fmt.Fprintf(&b, "  not computed: %v\n", a.Err)
+			continue
+		}
+		writeQualityText(&b, a.Quality)
+		if a.Result == nil {
+			fmt.Fprintf(&b, "  speciation failed: %v\n", a.Err)
+		} else {
+			writeResultText(&b, a.Result)
+		}
+		var warnings []string
+		warnings = append(warnings, a.Input.BelowDetection...)
+		warnings = append(warnings, a.Input.Warnings...)
+		if a.Result != nil {
+			warnings = append(warnings, a.Result.Warnings...)
+		}
+		if len(warnings) > 0 {
+			b.WriteString("  Notes\n")
+			for _, wn := range warnings {
+				fmt.Fprintf(&b, "    - %s\n", wn)
+			}
+		}
+	}
+	b.WriteString("\n" + wrap(Caution, 78) + "\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+func okWord(pass bool) string {
+	if pass {
+		return "ok"
+	}
+	return "CHECK"
+}
+
+func writeQualityText(b *strings.Builder, q water.Quality) {
+	b.WriteString("  Data quality\n")
+	tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "    ion balance\tcations %.3g meq/L, anions %.3g meq/L: %+.2f %%\t%s\t%s\n",
+		q.Cations, q.Anions, q.BalancePercent, q.BalanceLimit, okWord(q.BalanceAcceptable))
+	tds := fmt.Sprintf("calculated %.0f mg/L", q.TDSCalculated)
+	tdsVerdict := "not measured"
+	if !math.IsNaN(q.TDSMeasured) {
+		tds += fmt.Sprintf(", measured %.0f mg/L (ratio %.2f)", q.TDSMeasured, q.TDSRatio)
+		tdsVerdict = checkVerdict(q, "tds-ratio")
+	}
+	fmt.Fprintf(tw, "    dissolved solids\t%s\t1.0–1.2\t%s\n", tds, tdsVerdict)
+	ec := fmt.Sprintf("calculated %.0f µS/cm", q.ConductivityCalculated)
+	ecVerdict := "not measured"
+	if !math.IsNaN(q.ConductivityMeasured) {
+		ec += fmt.Sprintf(", measured %.0f µS/cm (ratio %.2f)", q.ConductivityMeasured, q.ConductivityRatio)
+		ecVerdict = checkVerdict(q, "ec-ratio")
+	}
+	fmt.Fprintf(tw, "    conductivity\t%s\t0.9–1.1\t%s\n", ec, ecVerdict)
+	is := fmt.Sprintf("composition %.3g, from TDS %.3g", q.IonicStrength, q.IonicStrengthFromTDS)
+	if !math.IsNaN(q.IonicStrengthFromConductivity) {
+		is += fmt.Sprintf(", from EC %.3g", q.IonicStrengthFromConductivity)
+	}
+	fmt.Fprintf(tw, "    ionic strength\t%s mol/kg\t\t\n", is)
+	tw.Flush()
+	for _, f := range q.Flags {
+		fmt.Fprintf(b, "    ! %s\n", f)
+	}
+}
+
+func checkVerdict(q water.Quality, name string) string {
+	for _, c := range q.Checks {
+		if c.Criterion.Name == name && c.Done {
+			return okWord(c.Pass)
+		}
+	}
+	return ""
+}
+
+func writeResultText(b *strings.Builder, r *saturation.Result) {
+	fmt.Fprintf(b, "  Equilibrium at %.1f °C: pH %.2f, ionic strength %.3g mol/kg (%s activity model)",
+		r.Temperature, r.PH, r.IonicStrength, r.Activity)
+	if !math.IsNaN(r.LogPCO2) {
+		fmt.Fprintf(b, ", log pCO2 %.2f", r.LogPCO2)
+	}
+	b.WriteString("\n")
+	if len(r.Minerals) == 0 {
+		b.WriteString("  No mineral of the table has all its components in this water.\n")
+		return
+	}
+	ms := slices.Clone(r.Minerals)
+	slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
+	tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', tabwriter.AlignRight)
+	fmt.Fprintf(tw, "    mineral\tformula\tSI\t\tband\t\n")
+	for _, m := range ms {
+		fmt.Fprintf(tw, "    %s\t%s\t%+.2f\t\t%s\t\n", m.Name, m.Formula, m.SI, saturation.RiskBand(m.Name, m.SI))
+	}
+	tw.Flush()
+}
+
+// wrap breaks text into lines of at most width characters at spaces.
+func wrap(text string, width int) string {
+	var lines []string
+	line := ""
+	for _, word := range strings.Fields(text) {
+		if line != "" && len([]rune(line))+1+len([]rune(word)) > width {
+			lines = append(lines, line)
+			line = word
+			continue
+		}
+		if line != "" {
+			line += " "
+		}
+		line += word
+	}
+	if line != "" {
+		lines = append(lines, line)
+	}
+	return strings.Join(lines, "\n")
+}
