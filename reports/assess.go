@@ -347,12 +347,15 @@ func writeResultText(b *strings.Builder, r *saturation.Result) {
 	}
 	ms := slices.Clone(r.Minerals)
 	slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
-	tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintf(tw, "    mineral\tformula\tSI\t\tband\t\n")
+	nameW, formW := len("mineral"), len("formula")
 	for _, m := range ms {
-		fmt.Fprintf(tw, "    %s\t%s\t%+.2f\t\t%s\t\n", m.Name, m.Formula, m.SI, saturation.RiskBand(m.Name, m.SI))
+		nameW = max(nameW, len([]rune(m.Name)))
+		formW = max(formW, len([]rune(m.Formula)))
 	}
-	tw.Flush()
+	fmt.Fprintf(b, "    %-*s  %-*s  %7s  %s\n", nameW, "mineral", formW, "formula", "SI", "band")
+	for _, m := range ms {
+		fmt.Fprintf(b, "    %-*s  %-*s  %+7.2f  %s\n", nameW, m.Name, formW, m.Formula, m.SI, saturation.RiskBand(m.Name, m.SI))
+	}
 }
 
 // wrap breaks text into lines of at most width characters at spaces.
