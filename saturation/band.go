@@ -18,12 +18,12 @@ type Band int
 
 // The risk bands, from least to most risk.
 const (
-	Undersaturated Band = iota // SI < −0.2: the water dissolves the mineral
-	NearEquilibrium            // −0.2 ≤ SI ≤ 0.2
-	SlowToForm                 // supersaturated, but the mineral rarely forms as scale here
-	WithinReach                // supersaturated, within what an inhibitor usually holds
-	Supersaturated             // supersaturated, no common inhibitor figure
-	BeyondReach                // supersaturated beyond what an inhibitor usually holds
+	Undersaturated  Band = iota // SI < −0.2: the water dissolves the mineral
+	NearEquilibrium             // −0.2 ≤ SI ≤ 0.2
+	SlowToForm                  // supersaturated, but the mineral rarely forms as scale here
+	WithinReach                 // supersaturated, within what an inhibitor usually holds
+	Supersaturated              // supersaturated, no common inhibitor figure
+	BeyondReach                 // supersaturated beyond what an inhibitor usually holds
 )
 
 var bandNames = [...]string{

@@ -592,7 +592,6 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	return maxAbs, sumSq
 }
 
-
 // newton runs Newton–Raphson with a step limit and a backtracking line
 // search until the scaled residuals and the water activity have converged.
 func (s *Solver) newton() error {
