@@ -193,9 +193,12 @@ func logGammaDeriv(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI f
 // References: Garrels, R.M. and Christ, C.L. (1965) Solutions, Minerals and
 // Equilibria (from memory).
 func waterActivity(sumM float64) float64 {
-	aw := 1 - 0.017*sumM
-	if aw < 0.05 {
-		aw = 0.05
-	}
-	return aw
+	return math.Max(1-waterActivitySlope*sumM, waterActivityFloor)
 }
+
+// waterActivitySlope is the 0.017 of a_w = 1 − 0.017 Σm; waterActivityFloor
+// keeps a_w positive far beyond the range of the ion-association models.
+const (
+	waterActivitySlope = 0.017
+	waterActivityFloor = 0.05
+)

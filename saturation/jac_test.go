@@ -32,14 +32,18 @@ func TestJacobianFD(t *testing.T) {
 			_ = s.solve(p, false)
 			s.lnm[0] += 0.3
 			s.lnI += 0.1
-			n := len(s.vars) + 1
+			s.lnaw -= 0.01
+			n := len(s.vars) + 2
 			s.evaluate(true)
 			J := append([]float64(nil), s.J[:n*n]...)
 			R0 := append([]float64(nil), s.R[:n]...)
 			sc0 := append([]float64(nil), s.scale[:n]...)
 			x := func(k int) *float64 {
-				if k == n-1 {
+				switch k {
+				case n - 2:
 					return &s.lnI
+				case n - 1:
+					return &s.lnaw
 				}
 				return &s.lnm[s.vars[k]]
 			}

@@ -3,6 +3,7 @@ package saturation
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sync"
 
 	"scalerisk/water"
@@ -49,6 +50,7 @@ type species struct {
 	logK   []lkTerm
 	alk    float64
 	act    activityParams
+	class  int // index into Model.classes: species with equal activity parameters
 	entry  *Entry
 	master int // master index for a master species, −1 otherwise
 }
@@ -74,6 +76,9 @@ type Model struct {
 	species    []species // the first len(masters) are the masters themselves
 	minerals   []phase
 	gases      []phase
+	// classes holds each distinct set of activity parameters once, so that
+	// the solver computes γ per class rather than per species.
+	classes    []activityParams
 	speciesIdx map[string]int
 	mineralIdx map[string]int
 	gasIdx     map[string]int
@@ -236,6 +241,15 @@ func NewModel(t *Table) (*Model, error) {
 				m.gases = append(m.gases, p)
 			}
 		}
+	}
+	for i := range m.species {
+		p := m.species[i].act
+		k := slices.Index(m.classes, p)
+		if k < 0 {
+			m.classes = append(m.classes, p)
+			k = len(m.classes) - 1
+		}
+		m.species[i].class = k
 	}
 	return m, nil
 }

@@ -58,12 +58,17 @@ type Solver struct {
 	tSet bool
 	lnK  []float64 // per species, natural log
 	dh   dhConstants
+	// mineralLogK is log10 K of each mineral reduced to the masters, and
+	// mineralOwnLogK log10 K of its own reaction as written.
+	mineralLogK, mineralOwnLogK []float64
 
 	p      problem
 	hasSol bool
 	lnm    []float64 // ln free molality per master
 	lnI    float64
 	lng    []float64 // ln γ per species
+	clg    []float64 // ln γ per activity class (Model.classes)
+	cdlg   []float64 // d ln γ / dI per activity class
 	dlng   []float64 // d ln γ / dI per species
 	ms     []float64 // molality per species
 	live   []bool
@@ -105,9 +110,11 @@ const tolerance = 1e-12
 // NewSolver returns a Solver for m.
 func NewSolver(m *Model) *Solver {
 	nm, ns := len(m.masters), len(m.species)
-	n := nm + 1
+	n := nm + 2
 	return &Solver{m: m, nm: nm, ns: ns,
-		lnK: make([]float64, ns), lnm: make([]float64, nm), lng: make([]float64, ns),
+		lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
+		mineralOwnLogK: make([]float64, len(m.minerals)),
+		clg:            make([]float64, len(m.classes)), cdlg: make([]float64, len(m.classes)), lnm: make([]float64, nm), lng: make([]float64, ns),
 		dlng: make([]float64, ns), ms: make([]float64, ns), live: make([]bool, ns),
 		vars: make([]int, 0, n), rows: make([]rowKind, 0, n), rowOf: make([]int, nm),
 		scale: make([]float64, n), J: make([]float64, n*n), R: make([]float64, n),
@@ -120,6 +127,10 @@ func (s *Solver) setTemperature(t float64) {
 	}
 	for i := range s.m.species {
 		s.lnK[i] = math.Ln10 * evalLogK(s.m.species[i].logK, t)
+	}
+	for i := range s.m.minerals {
+		s.mineralLogK[i] = evalLogK(s.m.minerals[i].logK, t)
+		s.mineralOwnLogK[i] = s.m.minerals[i].entry.LogK(t)
 	}
 	s.dh = newDHConstants(t)
 	s.t, s.tSet = t, true
@@ -415,19 +426,25 @@ func (s *Solver) updateWater() {
 
 // evaluate computes activity coefficients at I = exp(lnI), the molality of
 // every live species, and the scaled residuals in s.R; with jac it also
-// fills the Jacobian s.J (row-major, n×n, unknowns ln m of s.vars then
-// ln I). It returns the largest absolute scaled residual and the sum of
-// squares.
+// fills the Jacobian s.J (row-major, n×n; unknowns ln m of s.vars, then
+// ln I, then ln a_w). It returns the largest absolute scaled residual and
+// the sum of squares.
 func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	m, p := s.m, &s.p
 	nv := len(s.vars)
-	n := nv + 1
+	cI, cW := nv, nv+1 // columns (and rows) of ln I and ln a_w
+	n := nv + 2
 	I := math.Exp(s.lnI)
 	sqrtI := math.Sqrt(I)
+	clg, cdlg := s.clg, s.cdlg
+	for k := range m.classes {
+		lg, dlg := logGammaDeriv(p.model, &m.classes[k], s.dh, I, sqrtI)
+		clg[k], cdlg[k] = math.Ln10*lg, math.Ln10*dlg
+	}
 	for i := range m.species {
 		if s.live[i] {
-			lg, dlg := logGammaDeriv(p.model, &m.species[i].act, s.dh, I, sqrtI)
-			s.lng[i], s.dlng[i] = math.Ln10*lg, math.Ln10*dlg
+			c := m.species[i].class
+			s.lng[i], s.dlng[i] = clg[c], cdlg[c]
 		}
 	}
 	hFixed := p.hRow == rowFixed
@@ -454,14 +471,16 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	for l, j := range s.vars {
 		col[j] = l
 	}
-	var I2, dI2 float64
-	var dI2col [32]float64
+	// Sums for the ionic-strength and water rows and their derivatives:
+	// I2 = Σz²m, S = Σm.
+	var I2, S float64
+	var dI2, dS [34]float64
 	for i := range m.species {
 		if !s.live[i] {
 			continue
 		}
 		sp := &m.species[i]
-		// ln m_s and d ln m_s / dI.
+		// ln m_s and D = d ln m_s / dI.
 		var lnms, D float64
 		if sp.master >= 0 {
 			lnms = s.lnm[sp.master]
@@ -481,7 +500,6 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		ms := math.Exp(math.Min(lnms, lnMax))
 		s.ms[i] = ms
 		z := sp.act.z
-		// Residual contributions.
 		for _, nt := range sp.nu {
 			if r := s.rowOf[nt.j]; r >= 0 {
 				R[r] += nt.coef * ms
@@ -494,43 +512,38 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 			R[s.chgRow] += z * ms
 		}
 		I2 += z * z * ms
+		S += ms
 		if !jac {
 			continue
 		}
-		// Jacobian: ∂(w·m_s)/∂ln m_l = w·m_s·ν_sl; ∂/∂ln I = w·m_s·D·I.
-		dI := ms * D * I
-		add := func(r int, w float64) {
-			row := J[r*n : (r+1)*n]
+		// ∂m_s/∂ln m_l = m_s·ν_sl, ∂m_s/∂ln I = m_s·D·I, ∂m_s/∂ln a_w = m_s·ν_sW.
+		dmI, dmW := ms*D*I, ms*sp.nuW
+		add := func(row []float64, w float64) {
 			for _, nt := range sp.nu {
 				if l := col[nt.j]; l >= 0 {
 					row[l] += w * ms * nt.coef
 				}
 			}
-			row[nv] += w * dI
+			row[cI] += w * dmI
+			row[cW] += w * dmW
 		}
 		for _, nt := range sp.nu {
 			if r := s.rowOf[nt.j]; r >= 0 {
-				add(r, nt.coef)
+				add(J[r*n:(r+1)*n], nt.coef)
 			}
 		}
 		if s.alkRow >= 0 && sp.alk != 0 {
-			add(s.alkRow, sp.alk)
+			add(J[s.alkRow*n:(s.alkRow+1)*n], sp.alk)
 		}
 		if s.chgRow >= 0 && z != 0 {
-			add(s.chgRow, z)
+			add(J[s.chgRow*n:(s.chgRow+1)*n], z)
 		}
 		if z != 0 {
-			// Ionic-strength row, ln(½Σz²m) − ln I: collect ∂(Σz²m).
-			w := z * z * ms
-			for _, nt := range sp.nu {
-				if l := col[nt.j]; l >= 0 {
-					dI2col[l] += w * nt.coef
-				}
-			}
-			dI2 += w * D * I
+			add(dI2[:n], z*z)
 		}
+		add(dS[:n], 1)
 	}
-	// Finish rows: subtract totals, scale.
+	// Finish the component rows: subtract totals, scale.
 	for k, j := range s.vars {
 		var sc float64
 		switch s.rows[k] {
@@ -558,7 +571,8 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 				}
 			}
 			if jac {
-				J[k*n+nv] += dv * I
+				J[k*n+cI] += dv * I
+				J[k*n+cW] += g.nuW
 			}
 			R[k] = v
 			sc = 1
@@ -568,14 +582,28 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		}
 		s.scale[k] = sc
 	}
-	R[nv] = math.Log(I2/2) - s.lnI
-	s.scale[nv] = 1
+	// Ionic strength: ln(½Σz²m) − ln I = 0.
+	R[cI] = math.Log(I2/2) - s.lnI
+	s.scale[cI] = 1
+	// Water: ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity).
+	aw := waterActivity(S)
+	R[cW] = s.lnaw - math.Log(aw)
+	s.scale[cW] = 1
 	if jac {
-		row := J[nv*n : (nv+1)*n]
-		for l := 0; l < nv; l++ {
-			row[l] = dI2col[l] / I2
+		row := J[cI*n : (cI+1)*n]
+		for l := 0; l < n; l++ {
+			row[l] = dI2[l] / I2
 		}
-		row[nv] = dI2/I2 - 1
+		row[cI]--
+		row = J[cW*n : (cW+1)*n]
+		c := 0.0
+		if aw > waterActivityFloor {
+			c = waterActivitySlope / aw
+		}
+		for l := 0; l < n; l++ {
+			row[l] = c * dS[l]
+		}
+		row[cW]++
 	}
 	for k := 0; k < n; k++ {
 		inv := 1 / s.scale[k]
@@ -592,22 +620,21 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	return maxAbs, sumSq
 }
 
-// newton runs Newton–Raphson with a step limit and a backtracking line
-// search until the scaled residuals and the water activity have converged.
+// newton runs Newton–Raphson with a step limit and a non-monotone
+// backtracking line search until the scaled residuals have converged.
 func (s *Solver) newton() error {
-	n := len(s.vars) + 1
+	n := len(s.vars) + 2
+	cI, cW := n-2, n-1
 	s.iterations = 0
-	prevAw := math.Inf(1)
 	for it := 0; it < maxIterations; it++ {
 		s.iterations = it + 1
 		maxAbs, sumSq := s.evaluate(true)
 		if math.IsNaN(sumSq) || math.IsInf(sumSq, 0) {
 			return fmt.Errorf("%w: residual became NaN", ErrNoConvergence)
 		}
-		if maxAbs < tolerance && math.Abs(s.lnaw-prevAw) < 1e-14 {
+		if maxAbs < tolerance {
 			return nil
 		}
-		prevAw = s.lnaw
 		for k := 0; k < n; k++ {
 			s.dx[k] = -s.R[k]
 		}
@@ -617,7 +644,7 @@ func (s *Solver) newton() error {
 		}
 		b := blas64.General{Rows: n, Cols: 1, Stride: 1, Data: s.dx[:n]}
 		lapack64.Getrs(blas.NoTrans, a, b, s.ipiv[:n])
-		// Limit the step to a factor of 10 in any molality or in I.
+		// Limit the step to a factor of 10 in any molality, in I or in a_w.
 		var big float64
 		for k := 0; k < n; k++ {
 			big = math.Max(big, math.Abs(s.dx[k]))
@@ -632,14 +659,15 @@ func (s *Solver) newton() error {
 		for k, j := range s.vars {
 			s.save[k] = s.lnm[j]
 		}
-		s.save[n-1] = s.lnI
+		s.save[cI], s.save[cW] = s.lnI, s.lnaw
 		for try := 0; try < 12; try++ {
 			for k, j := range s.vars {
 				s.lnm[j] = s.save[k] + lambda*s.dx[k]
 			}
-			s.lnI = s.save[n-1] + lambda*s.dx[n-1]
-			if try == 11 || maxAbs < 1e-6 {
-				break // near the solution take the full Newton step
+			s.lnI = s.save[cI] + lambda*s.dx[cI]
+			s.lnaw = math.Min(s.save[cW]+lambda*s.dx[cW], 0)
+			if try == 11 || maxAbs < 1e-6 || lambda*big < 0.5 {
+				break // a small step near the solution is taken as it is
 			}
 			// A non-monotone test: the residuals of a speciation may rise
 			// for a step or two on the way (a component's minor species
@@ -650,7 +678,6 @@ func (s *Solver) newton() error {
 			}
 			lambda /= 2
 		}
-		s.updateWater()
 	}
 	maxAbs, _ := s.evaluate(false)
 	return fmt.Errorf("%w after %d iterations (largest relative residual %.2g)", ErrNoConvergence, maxIterations, maxAbs)

@@ -1,11 +1,9 @@
 package saturation
 
 import (
-	"cmp"
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 	"strings"
 
 	"scalerisk/water"
@@ -93,7 +91,7 @@ type Result struct {
 	// Analysis is the water at the state evaluated, with inorganic carbon
 	// fixed (Totals[C], CarbonKnown) and pH and alkalinity as computed.
 	Analysis   water.Analysis
-	Species    []SpeciesResult // by decreasing molality
+	Species    []SpeciesResult // live species in table order (masters first)
 	Minerals   []MineralResult // table order; minerals with an absent component are left out
 	Iterations int
 	Warnings   []string
@@ -218,7 +216,8 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	carbonKnown := a.CarbonKnown
 
 	// Step 1: fix carbon (or alkalinity) at the pH measurement temperature.
-	var fixedAt *Result
+	var fixed bool
+	var fixedProblem problem
 	if hasPH {
 		if a.PH < 0 || a.PH > 14 {
 			return nil, fmt.Errorf("pH %.4g is outside 0–14", a.PH)
@@ -234,28 +233,35 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 			p.cRow = rowMass
 		}
 		if err := s.solve(p, true); err != nil {
+			if p.cRow == rowAlk {
+				// Is the alkalinity already exceeded by the species other
+				// than carbonate at this pH (hydroxide, silicate, borate,
+				// phosphate)? Then no positive carbon fits.
+				q := p
+				q.cRow = rowAbsent
+				if s.solve(q, false) == nil {
+					if _, other, _ := sp.carbonState(); other >= alk {
+						return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: the non-carbonate species alone give %.4g meq/kg",
+							a.PH, 1000*alk, 1000*other)
+					}
+				}
+			}
 			return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
 		}
-		r := sp.collect(a, p)
-		if p.cRow == rowAlk {
-			if carbonKnown && carbon > 0 && math.Abs(r.Carbon-carbon) > 0.1*carbon {
-				warnings = append(warnings, fmt.Sprintf(
-					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
-					1000*carbon, 1000*r.Carbon))
-			}
-			if r.Carbon < 0 {
-				return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: no positive inorganic carbon fits them", a.PH, 1000*alk)
-			}
+		c1, alk1, co2 := sp.carbonState()
+		if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
+			warnings = append(warnings, fmt.Sprintf(
+				"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
+				1000*carbon, 1000*c1))
 		}
-		if co2 := r.Molality("CO2[0]"); !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 &&
-			(co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
+		if !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 && (co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
 			warnings = append(warnings, fmt.Sprintf(
 				"reported free CO2 (%.3g mmol/kg) and the value from pH and alkalinity (%.3g mmol/kg) differ by more than a factor of 2: check the pH (free CO2 is often lost before analysis)",
 				1000*a.FreeCO2, 1000*co2))
 		}
-		carbon, carbonKnown = r.Carbon, true
-		alk = r.Alkalinity
-		fixedAt = r
+		carbon, carbonKnown = c1, true
+		alk = alk1
+		fixed, fixedProblem = true, p
 	} else if hasAlk && !carbonKnown && alk != 0 && opt.Carbonate != FixedPCO2 {
 		return nil, errors.New("pH is needed to find inorganic carbon from alkalinity (or report DIC)")
 	}
@@ -266,12 +272,14 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 		totals[cj] = carbon
 		p.cRow = rowMass
 	}
-	alkKnown := hasAlk || fixedAt != nil
+	alkKnown := hasAlk || fixed
 	switch opt.Carbonate {
 	case Closed:
-		if fixedAt != nil && t == a.PHTemperature {
-			fixedAt.Warnings = append(warnings, fixedAt.Warnings...)
-			return sp.finish(fixedAt, a, t), nil
+		if fixed && t == a.PHTemperature {
+			// The solver still holds the solution at the measured pH.
+			r := sp.collect(a, fixedProblem)
+			r.Warnings = append(warnings, r.Warnings...)
+			return sp.finish(r, a, t), nil
 		}
 		if alkKnown {
 			p.hRow, p.alk = rowAlk, alk
@@ -309,6 +317,30 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	return sp.finish(r, a, t), nil
 }
 
+// carbonState returns total inorganic carbon (mol/kg), alkalinity (eq/kg)
+// and the molality of CO2[0] of the solver's current solution.
+func (sp *Speciator) carbonState() (carbon, alk, co2 float64) {
+	s, m := sp.solver, sp.model
+	cj := m.compMaster[water.C]
+	co2i, hasCO2 := m.speciesIdx["CO2[0]"]
+	for i := range m.species {
+		if !s.live[i] {
+			continue
+		}
+		mi := s.ms[i]
+		alk += m.species[i].alk * mi
+		for _, nt := range m.species[i].nu {
+			if nt.j == cj {
+				carbon += nt.coef * mi
+			}
+		}
+	}
+	if hasCO2 && s.live[co2i] {
+		co2 = s.ms[co2i]
+	}
+	return carbon, alk, co2
+}
+
 // collect turns the solver state into a Result.
 func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 	s, m := sp.solver, sp.model
@@ -337,7 +369,6 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 	if zabs > 0 {
 		r.ChargeBalance = 100 * zsum / zabs
 	}
-	slices.SortStableFunc(r.Species, func(x, y SpeciesResult) int { return cmp.Compare(y.Molality, x.Molality) })
 	// log a of each master.
 	loga := make([]float64, len(m.masters))
 	present := make([]bool, len(m.masters))
@@ -369,13 +400,13 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 		if !ok {
 			continue
 		}
-		logK := evalLogK(mn.logK, p.t)
+		logK := s.mineralLogK[i]
 		iap := mn.nuW * logaw
 		for _, nt := range mn.nu {
 			iap += nt.coef * loga[nt.j]
 		}
 		// Report log IAP and log Ksp of the mineral's own reaction.
-		own := mn.entry.LogK(p.t)
+		own := s.mineralOwnLogK[i]
 		r.Minerals = append(r.Minerals, MineralResult{Name: mn.name, Formula: mn.formula,
 			SI: iap - logK, LogIAP: iap - logK + own, LogK: own, Source: mn.entry.Source})
 		if e, bad := outOfRange(mn.logK, p.t); bad {
