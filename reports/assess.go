@@ -298,8 +298,12 @@ func okWord(pass bool) string {
 func writeQualityText(b *strings.Builder, q water.Quality) {
 	b.WriteString("  Data quality\n")
 	tw := tabwriter.NewWriter(b, 0, 0, 2, ' ', 0)
-	fmt.Fprintf(tw, "    ion balance\tcations %.3g meq/L, anions %.3g meq/L: %+.2f %%\t%s\t%s\n",
-		q.Cations, q.Anions, q.BalancePercent, q.BalanceLimit, okWord(q.BalanceAcceptable))
+	balance := "n/a"
+	if !math.IsNaN(q.BalancePercent) {
+		balance = fmt.Sprintf("%+.2f %%", q.BalancePercent)
+	}
+	fmt.Fprintf(tw, "    ion balance\tcations %.3g meq/L, anions %.3g meq/L: %s\t%s\t%s\n",
+		q.Cations, q.Anions, balance, q.BalanceLimit, okWord(q.BalanceAcceptable))
 	tds := fmt.Sprintf("calculated %.0f mg/L", q.TDSCalculated)
 	tdsVerdict := "not measured"
 	if !math.IsNaN(q.TDSMeasured) {

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"scalerisk/water"
@@ -124,6 +125,35 @@ func (r *Result) Molality(name string) float64 {
 type Speciator struct {
 	model  *Model
 	solver *Solver
+	// last carbon fix (step 1 of Speciate), reused while the same water is
+	// evaluated at other temperatures or in other modes.
+	fix       carbonFix
+	fixCached bool
+}
+
+// fixKey identifies what a carbon fix depends on: the analysis (totals, pH,
+// its temperature, alkalinity, reported carbon) and the activity model.
+type fixKey struct {
+	totals                        [water.NumComponents]uint64
+	ph, pht, alk, carbon, freeCO2 uint64
+	carbonKnown                   bool
+	model                         ActivityModel
+}
+
+type carbonFix struct {
+	key         fixKey
+	carbon, alk float64
+	warnings    []string
+}
+
+func newFixKey(a water.Analysis, model ActivityModel) fixKey {
+	k := fixKey{ph: math.Float64bits(a.PH), pht: math.Float64bits(a.PHTemperature),
+		alk: math.Float64bits(a.Alkalinity), carbon: math.Float64bits(a.Totals[water.C]),
+		freeCO2: math.Float64bits(a.FreeCO2), carbonKnown: a.CarbonKnown, model: model}
+	for c := range water.NumComponents {
+		k.totals[c] = math.Float64bits(a.Totals[c])
+	}
+	return k
 }
 
 // NewSpeciator returns a Speciator for model m (nil means DefaultModel).
@@ -165,7 +195,7 @@ const (
 // balance without alkalinity). Errors say which sample and why.
 func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	if opt.Model != nil && opt.Model != sp.model {
-		sp.model, sp.solver = opt.Model, NewSolver(opt.Model)
+		sp.model, sp.solver, sp.fixCached = opt.Model, NewSolver(opt.Model), false
 	}
 	t := a.Temperature
 	if opt.AtTemperature {
@@ -222,46 +252,56 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 		if a.PH < 0 || a.PH > 14 {
 			return nil, fmt.Errorf("pH %.4g is outside 0–14", a.PH)
 		}
-		p := problem{t: a.PHTemperature, model: model, totals: totals, hRow: rowFixed,
-			lnaH: -a.PH * math.Ln10, cRow: rowAbsent}
-		switch {
-		case hasAlk && (!carbonKnown || carbon == 0):
-			p.cRow = rowAlk
-			p.alk = alk
-		case carbonKnown && carbon > 0:
-			totals[cj] = carbon
-			p.cRow = rowMass
-		}
-		if err := s.solve(p, true); err != nil {
-			if p.cRow == rowAlk {
-				// Is the alkalinity already exceeded by the species other
-				// than carbonate at this pH (hydroxide, silicate, borate,
-				// phosphate)? Then no positive carbon fits.
-				q := p
-				q.cRow = rowAbsent
-				if s.solve(q, false) == nil {
-					if _, other, _ := sp.carbonState(); other >= alk {
-						return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: the non-carbonate species alone give %.4g meq/kg",
-							a.PH, 1000*alk, 1000*other)
+		key := newFixKey(a, model)
+		reuse := sp.fixCached && sp.fix.key == key && !(opt.Carbonate == Closed && t == a.PHTemperature)
+		if reuse {
+			carbon, carbonKnown, alk = sp.fix.carbon, true, sp.fix.alk
+			warnings = append(warnings, sp.fix.warnings...)
+			fixed = true
+		} else {
+			p := problem{t: a.PHTemperature, model: model, totals: totals, hRow: rowFixed,
+				lnaH: -a.PH * math.Ln10, cRow: rowAbsent}
+			switch {
+			case hasAlk && (!carbonKnown || carbon == 0):
+				p.cRow = rowAlk
+				p.alk = alk
+			case carbonKnown && carbon > 0:
+				totals[cj] = carbon
+				p.cRow = rowMass
+			}
+			if err := s.solve(p, true); err != nil {
+				if p.cRow == rowAlk {
+					// Is the alkalinity already exceeded by the species other
+					// than carbonate at this pH (hydroxide, silicate, borate,
+					// phosphate)? Then no positive carbon fits.
+					q := p
+					q.cRow = rowAbsent
+					if s.solve(q, false) == nil {
+						if _, other, _ := sp.carbonState(); other >= alk {
+							return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: the non-carbonate species alone give %.4g meq/kg",
+								a.PH, 1000*alk, 1000*other)
+						}
 					}
 				}
+				return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
 			}
-			return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
+			c1, alk1, co2 := sp.carbonState()
+			if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
+				warnings = append(warnings, fmt.Sprintf(
+					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
+					1000*carbon, 1000*c1))
+			}
+			if !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 && (co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
+				warnings = append(warnings, fmt.Sprintf(
+					"reported free CO2 (%.3g mmol/kg) and the value from pH and alkalinity (%.3g mmol/kg) differ by more than a factor of 2: check the pH (free CO2 is often lost before analysis)",
+					1000*a.FreeCO2, 1000*co2))
+			}
+			carbon, carbonKnown = c1, true
+			alk = alk1
+			fixed, fixedProblem = true, p
+			sp.fix = carbonFix{key: key, carbon: carbon, alk: alk, warnings: slices.Clone(warnings)}
+			sp.fixCached = true
 		}
-		c1, alk1, co2 := sp.carbonState()
-		if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
-			warnings = append(warnings, fmt.Sprintf(
-				"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
-				1000*carbon, 1000*c1))
-		}
-		if !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 && (co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
-			warnings = append(warnings, fmt.Sprintf(
-				"reported free CO2 (%.3g mmol/kg) and the value from pH and alkalinity (%.3g mmol/kg) differ by more than a factor of 2: check the pH (free CO2 is often lost before analysis)",
-				1000*a.FreeCO2, 1000*co2))
-		}
-		carbon, carbonKnown = c1, true
-		alk = alk1
-		fixed, fixedProblem = true, p
 	} else if hasAlk && !carbonKnown && alk != 0 && opt.Carbonate != FixedPCO2 {
 		return nil, errors.New("pH is needed to find inorganic carbon from alkalinity (or report DIC)")
 	}
@@ -404,6 +444,10 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 		iap := mn.nuW * logaw
 		for _, nt := range mn.nu {
 			iap += nt.coef * loga[nt.j]
+		}
+		if math.IsNaN(iap) || math.IsInf(iap, 0) || math.IsNaN(logK) || math.IsInf(logK, 0) {
+			r.Warnings = append(r.Warnings, fmt.Sprintf("saturation index of %s could not be computed (not finite)", mn.name))
+			continue
 		}
 		// Report log IAP and log Ksp of the mineral's own reaction.
 		own := s.mineralOwnLogK[i]

@@ -44,7 +44,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 	f := cmd.Flags()
 	f.StringVar(&o.format, "format", "text", "output format: text, csv or json")
 	f.Float64Var(&o.temperature, "temperature", 0, "evaluate each sample at this temperature, °C (closed carbonate system)")
-	f.StringVar(&o.activity, "activity", "auto", "activity model: auto, davies, truesdell-jones or bdot")
+	f.StringVar(&o.activity, "activity", "auto", "activity model: auto, davies, truesdell-jones or bdot (pitzer: a later release)")
 	f.StringVar(&o.thermo, "thermo", "", "extra thermodynamic table (CSV) whose rows add to or replace the embedded ones")
 	f.StringVar(&o.belowDetection, "below-detection", "half", "value for \"<x\" results: half (x/2), zero or limit (x)")
 	f.BoolVar(&o.demo, "demo", false, "assess the embedded demo waters of a fictional plant")
@@ -66,6 +66,9 @@ func (o *assessOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	}
 	opt := saturation.Options{Activity: activity}
 	if cmd.Flags().Changed("temperature") {
+		if !(o.temperature >= 0 && o.temperature <= 150) { // also rejects NaN
+			return badInput(fmt.Errorf("--temperature %g is outside 0–150 °C", o.temperature))
+		}
 		opt.AtTemperature, opt.Temperature = true, o.temperature
 	}
 	if o.thermo != "" {
@@ -75,9 +78,12 @@ func (o *assessOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		}
 		opt.Model = model
 	}
-	inputs := args
+	var inputs []input
 	if o.demo {
-		inputs = append([]string{demoName}, args...)
+		inputs = append(inputs, input{name: demoName, embedded: true})
+	}
+	for _, a := range args {
+		inputs = append(inputs, input{name: a})
 	}
 	if len(inputs) == 0 {
 		return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
@@ -85,8 +91,9 @@ func (o *assessOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	stderr := cmd.ErrOrStderr()
 	var all []saturation.Assessment
 	problems, failures := 0, 0
-	for _, name := range inputs {
-		records, probs, err := readInput(name, stdin, water.ReadOptions{Detection: policy}, o.demo)
+	for _, in := range inputs {
+		name := in.name
+		records, probs, err := readInput(in, stdin, water.ReadOptions{Detection: policy})
 		if err != nil {
 			fmt.Fprintln(stderr, err)
 			problems++
@@ -124,20 +131,27 @@ func (o *assessOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 // demoName is the file name the embedded demo waters carry in output.
 const demoName = "demo.csv"
 
-// readInput reads one named input: a file, "-" for standard input, or (with
-// demo) the embedded demo file.
-func readInput(name string, stdin io.Reader, opt water.ReadOptions, demo bool) ([]water.Record, []error, error) {
+// input is one input of a command: a file name, "-" for standard input,
+// or the embedded demo file.
+type input struct {
+	name     string
+	embedded bool
+}
+
+// readInput reads one input.
+func readInput(in input, stdin io.Reader, opt water.ReadOptions) ([]water.Record, []error, error) {
+	name := in.name
 	var r io.Reader
 	switch {
-	case name == "-":
-		r = stdin
-	case demo && name == demoName:
+	case in.embedded:
 		f, err := data.FS.Open("demo.csv")
 		if err != nil {
 			return nil, nil, err
 		}
 		defer f.Close()
 		r = f
+	case name == "-":
+		r = stdin
 	default:
 		f, err := os.Open(name)
 		if err != nil {
