@@ -54,10 +54,11 @@ type Solver struct {
 	nm, ns int
 
 	// temperature cache
-	t    float64
-	tSet bool
-	lnK  []float64 // per species, natural log
-	dh   dhConstants
+	t     float64
+	tSet  bool
+	lnK   []float64 // per species, natural log
+	dh    dhConstants
+	other tempCache // the previous temperature's constants
 	// mineralLogK is log10 K of each mineral reduced to the masters, and
 	// mineralOwnLogK log10 K of its own reaction as written.
 	mineralLogK, mineralOwnLogK []float64
@@ -87,6 +88,9 @@ type Solver struct {
 	save   []float64
 	ipiv   []int
 	prevV  []int
+	// totals and alkalinity of the previous solve, for rescale
+	prevTotals []float64
+	prevAlk    float64
 
 	// acid–base forms of each unknown master (see acidBase)
 	abStart   []int
@@ -103,6 +107,10 @@ type Solver struct {
 // maxIterations bounds the Newton–Raphson iterations of one solve.
 const maxIterations = 200
 
+// chordThreshold is the largest scaled residual at which the solver
+// reuses the previous Jacobian's factors (see newton).
+const chordThreshold = 1e-5
+
 // tolerance is the largest relative residual of a converged solve: mass
 // balances close to 1e-12 of each total.
 const tolerance = 1e-12
@@ -111,7 +119,9 @@ const tolerance = 1e-12
 func NewSolver(m *Model) *Solver {
 	nm, ns := len(m.masters), len(m.species)
 	n := nm + 2
-	return &Solver{m: m, nm: nm, ns: ns,
+	other := tempCache{lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
+		mineralOwnLogK: make([]float64, len(m.minerals))}
+	return &Solver{other: other, m: m, nm: nm, ns: ns,
 		lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
 		mineralOwnLogK: make([]float64, len(m.minerals)),
 		clg:            make([]float64, len(m.classes)), cdlg: make([]float64, len(m.classes)), lnm: make([]float64, nm), lng: make([]float64, ns),
@@ -125,6 +135,15 @@ func (s *Solver) setTemperature(t float64) {
 	if s.tSet && s.t == t {
 		return
 	}
+	// Two temperatures are kept: a water is usually evaluated at its pH
+	// temperature and then at another, alternately.
+	if s.other.set && s.other.t == t {
+		s.swapTemperature()
+		return
+	}
+	if s.tSet {
+		s.swapTemperature()
+	}
 	for i := range s.m.species {
 		s.lnK[i] = math.Ln10 * evalLogK(s.m.species[i].logK, t)
 	}
@@ -134,6 +153,25 @@ func (s *Solver) setTemperature(t float64) {
 	}
 	s.dh = newDHConstants(t)
 	s.t, s.tSet = t, true
+}
+
+// tempCache holds the temperature-dependent constants of one temperature.
+type tempCache struct {
+	t                           float64
+	set                         bool
+	lnK                         []float64
+	mineralLogK, mineralOwnLogK []float64
+	dh                          dhConstants
+}
+
+// swapTemperature exchanges the current temperature's constants with the
+// other cached ones.
+func (s *Solver) swapTemperature() {
+	cur := tempCache{t: s.t, set: s.tSet, lnK: s.lnK, mineralLogK: s.mineralLogK,
+		mineralOwnLogK: s.mineralOwnLogK, dh: s.dh}
+	o := s.other
+	s.t, s.tSet, s.lnK, s.mineralLogK, s.mineralOwnLogK, s.dh = o.t, o.set, o.lnK, o.mineralLogK, o.mineralOwnLogK, o.dh
+	s.other = cur
 }
 
 // ErrNoConvergence reports a speciation that did not converge.
@@ -208,16 +246,83 @@ func (s *Solver) solve(p problem, warm bool) error {
 		}
 	}
 	same := warm && s.hasSol && sameMasters(s.prevV, s.vars)
-	if !same {
+	if same {
+		s.rescale()
+	} else {
 		s.initialGuess()
 	}
 	s.prevV = append(s.prevV[:0], s.vars...)
+	s.prevTotals = append(s.prevTotals[:0], p.totals...)
+	s.prevAlk = p.alk
 	s.hasSol = false
 	err := s.newton()
 	if err == nil {
 		s.hasSol = true
 	}
 	return err
+}
+
+// rescale adapts a warm start to the new totals: each mass-balance master
+// moves by the ratio of its new to its old total, carbon fixed by
+// alkalinity by the ratio of the alkalinities, and ionic strength by the
+// mean ratio. A water concentrated by cycles, or the next sample of a
+// similar series, then starts close to its solution.
+func (s *Solver) rescale() {
+	p := &s.p
+	// A new fixed pH shifts each master by the change of its acid–base
+	// forms (activity coefficients held at the previous solution's).
+	oldLnaH := s.lnm[0] + s.lng[0]
+	if p.hRow == rowFixed && math.Abs(p.lnaH-oldLnaH) > 1e-9 {
+		s.acidBase()
+		for k, j := range s.vars {
+			if j == 0 {
+				continue
+			}
+			denOld, denNew := 1.0, 1.0
+			alkOld, alkNew := s.m.species[j].alk, s.m.species[j].alk
+			for q := s.abStart[k]; q < s.abStart[k+1]; q++ {
+				i := s.abSpecies[q]
+				xo := math.Exp(math.Min(s.lnK[i]+s.abNuH[q]*oldLnaH, 300))
+				xn := math.Exp(math.Min(s.lnK[i]+s.abNuH[q]*p.lnaH, 300))
+				denOld += xo
+				denNew += xn
+				alkOld += s.m.species[i].alk * xo
+				alkNew += s.m.species[i].alk * xn
+			}
+			switch s.rows[k] {
+			case rowMass:
+				s.lnm[j] += math.Log(denOld / denNew)
+			case rowAlk:
+				if alkOld > 0 && alkNew > 0 {
+					s.lnm[j] += math.Log(alkOld / alkNew)
+				}
+			}
+		}
+	}
+	var sum float64
+	var n int
+	for k, j := range s.vars {
+		var ratio float64
+		switch s.rows[k] {
+		case rowMass:
+			if s.prevTotals[j] > 0 && p.totals[j] > 0 {
+				ratio = p.totals[j] / s.prevTotals[j]
+			}
+		case rowAlk:
+			if j != 0 && s.prevAlk > 0 && p.alk > 0 {
+				ratio = p.alk / s.prevAlk
+			}
+		}
+		if ratio > 0 && ratio != 1 {
+			lr := math.Log(ratio)
+			s.lnm[j] += lr
+			sum += lr
+			n++
+		}
+	}
+	if n > 0 {
+		s.lnI += sum / float64(n)
+	}
 }
 
 // sameMasters reports whether two lists of unknown masters agree but for
@@ -586,8 +691,8 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	R[cI] = math.Log(I2/2) - s.lnI
 	s.scale[cI] = 1
 	// Water: ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity).
-	aw := waterActivity(S)
-	R[cW] = s.lnaw - math.Log(aw)
+	awCalc := waterActivity(S)
+	R[cW] = s.lnaw - math.Log(awCalc)
 	s.scale[cW] = 1
 	if jac {
 		row := J[cI*n : (cI+1)*n]
@@ -597,8 +702,8 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		row[cI]--
 		row = J[cW*n : (cW+1)*n]
 		c := 0.0
-		if aw > waterActivityFloor {
-			c = waterActivitySlope / aw
+		if awCalc > waterActivityFloor {
+			c = waterActivitySlope / awCalc
 		}
 		for l := 0; l < n; l++ {
 			row[l] = c * dS[l]
@@ -626,21 +731,35 @@ func (s *Solver) newton() error {
 	n := len(s.vars) + 2
 	cI, cW := n-2, n-1
 	s.iterations = 0
+	// Once the residuals are small, the factorised Jacobian of the previous
+	// iteration is reused (a chord step): the last iterations then cost a
+	// residual and a back-substitution instead of a Jacobian and an LU.
+	factored, prevMax := false, math.Inf(1)
+	a := blas64.General{Rows: n, Cols: n, Stride: n, Data: s.J[:n*n]}
 	for it := 0; it < maxIterations; it++ {
 		s.iterations = it + 1
-		maxAbs, sumSq := s.evaluate(true)
+		chord := factored && prevMax < chordThreshold
+		maxAbs, sumSq := s.evaluate(!chord)
 		if math.IsNaN(sumSq) || math.IsInf(sumSq, 0) {
 			return fmt.Errorf("%w: residual became NaN", ErrNoConvergence)
 		}
 		if maxAbs < tolerance {
 			return nil
 		}
+		if chord && maxAbs > 0.1*prevMax {
+			// The chord step did not contract well: refresh the Jacobian.
+			maxAbs, sumSq = s.evaluate(true)
+			chord = false
+		}
+		prevMax = maxAbs
 		for k := 0; k < n; k++ {
 			s.dx[k] = -s.R[k]
 		}
-		a := blas64.General{Rows: n, Cols: n, Stride: n, Data: s.J[:n*n]}
-		if ok := lapack64.Getrf(a, s.ipiv[:n]); !ok {
-			return fmt.Errorf("%w: singular Jacobian (a component may be fixed twice)", ErrNoConvergence)
+		if !chord {
+			if ok := lapack64.Getrf(a, s.ipiv[:n]); !ok {
+				return fmt.Errorf("%w: singular Jacobian (a component may be fixed twice)", ErrNoConvergence)
+			}
+			factored = true
 		}
 		b := blas64.General{Rows: n, Cols: 1, Stride: 1, Data: s.dx[:n]}
 		lapack64.Getrs(blas.NoTrans, a, b, s.ipiv[:n])

@@ -389,6 +389,14 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 	r.PH = -(s.lnm[0] + s.lng[0]) / math.Ln10
 	cj := m.compMaster[water.C]
 	var zsum, zabs float64
+	nlive := 0
+	for _, l := range s.live {
+		if l {
+			nlive++
+		}
+	}
+	r.Species = make([]SpeciesResult, 0, nlive)
+	r.Minerals = make([]MineralResult, 0, len(m.minerals))
 	for i := range m.species {
 		if !s.live[i] {
 			continue
@@ -458,8 +466,9 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 		}
 	}
 	if math.Abs(p.t-25) > 5 {
+		significant := 1e-2 * maxTotal(p.totals)
 		for i := len(m.masters); i < len(m.species); i++ {
-			if s.live[i] && m.species[i].entry.TemperatureFunction() == "constant" && s.ms[i] > 1e-2*maxTotal(p.totals) {
+			if s.live[i] && m.species[i].entry.TemperatureFunction() == "constant" && s.ms[i] > significant {
 				constant = append(constant, m.species[i].name)
 			}
 		}
