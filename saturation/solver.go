@@ -372,7 +372,7 @@ func (s *Solver) initialGuess() {
 		lnaH = s.guessPH()
 	}
 	s.mastersAt(lnaH)
-	for pass := 0; pass < 4; pass++ {
+	for pass := 0; pass < 2; pass++ {
 		s.evaluate(false)
 		for k, j := range s.vars {
 			if s.rows[k] != rowMass {
