@@ -256,6 +256,12 @@ func (s *Solver) solve(p problem, warm bool) error {
 	s.prevAlk = p.alk
 	s.hasSol = false
 	err := s.newton()
+	if err != nil && same {
+		// A warm start from a very different water can mislead Newton:
+		// start again from the cold guess.
+		s.initialGuess()
+		err = s.newton()
+	}
 	if err == nil {
 		s.hasSol = true
 	}
@@ -265,8 +271,9 @@ func (s *Solver) solve(p problem, warm bool) error {
 // rescale adapts a warm start to the new totals: each mass-balance master
 // moves by the ratio of its new to its old total, carbon fixed by
 // alkalinity by the ratio of the alkalinities, and ionic strength by the
-// mean ratio. A water concentrated by cycles, or the next sample of a
-// similar series, then starts close to its solution.
+// ratio of its estimates from the totals; a new fixed pH shifts each master
+// by the change of its acid–base forms. A water concentrated by cycles, or
+// the next sample of a similar series, then starts close to its solution.
 func (s *Solver) rescale() {
 	p := &s.p
 	// A new fixed pH shifts each master by the change of its acid–base
@@ -299,8 +306,7 @@ func (s *Solver) rescale() {
 			}
 		}
 	}
-	var sum float64
-	var n int
+	var iOld, iNew float64
 	for k, j := range s.vars {
 		var ratio float64
 		switch s.rows[k] {
@@ -308,20 +314,20 @@ func (s *Solver) rescale() {
 			if s.prevTotals[j] > 0 && p.totals[j] > 0 {
 				ratio = p.totals[j] / s.prevTotals[j]
 			}
+			z := s.m.species[j].act.z
+			iOld += z * z * s.prevTotals[j]
+			iNew += z * z * p.totals[j]
 		case rowAlk:
 			if j != 0 && s.prevAlk > 0 && p.alk > 0 {
 				ratio = p.alk / s.prevAlk
 			}
 		}
 		if ratio > 0 && ratio != 1 {
-			lr := math.Log(ratio)
-			s.lnm[j] += lr
-			sum += lr
-			n++
+			s.lnm[j] += math.Log(ratio)
 		}
 	}
-	if n > 0 {
-		s.lnI += sum / float64(n)
+	if iOld > 0 && iNew > 0 {
+		s.lnI += math.Log(iNew / iOld)
 	}
 }
 

@@ -1,0 +1,164 @@
+package saturation
+
+import (
+	"fmt"
+	"math"
+
+	"scalerisk/water"
+)
+
+// Indices holds the trade's classic calcium carbonate indices of one water
+// at one temperature.
+type Indices struct {
+	// LSI is the Langelier index pH − pHs with pHs in the activity-based
+	// form of Standard Methods 2330 (see LangelierPHs).
+	LSI float64
+	// PHs is the saturation pH of that form.
+	PHs float64
+	// LSISimplified is pH − pHs with pHs = (9.3 + A + B) − (C + D), the
+	// common trade form (see SimplifiedPHs).
+	LSISimplified float64
+	// RSI is the Ryznar index 2·pHs − pH (Ryznar 1944).
+	RSI float64
+	// PSI is the Puckorius index 2·pHs − pHeq, pHeq = 1.465·log10(TA) + 4.54
+	// with TA the total alkalinity in mg/L as CaCO3 (Puckorius & Brooke 1991).
+	PSI float64
+	// StiffDavis is pH − (pCa + pAlk + K), with K derived from this
+	// engine's constants and activity coefficients at the water's ionic
+	// strength and temperature (the published K chart of Stiff & Davis 1952
+	// was not available): K = pK2 − pKs − log γ(Ca2+) − log γ(HCO3−).
+	StiffDavis float64
+	// LarsonSkold is (Cl⁻ + SO4²⁻)/(HCO3⁻ + CO3²⁻) in equivalents, with the
+	// denominator taken as the total alkalinity (Larson & Skold 1958).
+	LarsonSkold float64
+	// CCPP is the calcium carbonate precipitation potential, mg/L as
+	// CaCO3: positive where calcite would precipitate to reach equilibrium,
+	// negative where the water would dissolve it (closed system; Standard
+	// Methods 2330 sign convention). NaN when it could not be computed.
+	CCPP float64
+}
+
+// ClassicIndices computes the classic indices of the water of r (a result of
+// this Speciator) at r's temperature and pH. The CCPP re-speciates the
+// water; its failure leaves CCPP NaN with a note in the returned warnings.
+// Indices need calcium and alkalinity; without them every field is NaN.
+func (sp *Speciator) ClassicIndices(r *Result, opt Options) (Indices, []string) {
+	nan := math.NaN()
+	ix := Indices{LSI: nan, PHs: nan, LSISimplified: nan, RSI: nan, PSI: nan, StiffDavis: nan, LarsonSkold: nan, CCPP: nan}
+	a := r.Analysis
+	wpl := a.WaterPerLitre
+	ca := a.Totals[water.Ca] * wpl // mol/L
+	alk := a.Alkalinity * wpl      // eq/L
+	var warnings []string
+	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
+		if alk > 0 {
+			ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk
+		}
+	}
+	if !(ca > 0) || !(alk > 0) {
+		return ix, []string{"classic indices need calcium and a positive alkalinity"}
+	}
+	table := sp.model.table
+	ix.PHs = LangelierPHs(table, r.Temperature, r.PH, r.IonicStrength, ca, alk)
+	ix.LSI = r.PH - ix.PHs
+	ix.RSI = 2*ix.PHs - r.PH
+	taCaCO3 := alk * 1000 * equivalentMassCaCO3
+	pHeq := 1.465*math.Log10(taCaCO3) + 4.54
+	ix.PSI = 2*ix.PHs - pHeq
+	tds := a.Quality().TDSCalculated
+	if !math.IsNaN(a.MeasuredTDS) && a.MeasuredTDS > 0 {
+		tds = a.MeasuredTDS
+	}
+	ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*equivalentMassCaCO3, taCaCO3)
+	// Stiff–Davis with this engine's γ.
+	var gCa, gHCO3 float64
+	for _, s := range r.Species {
+		switch s.Name {
+		case "Ca[2+]":
+			gCa = s.Gamma
+		case "HCO3[-]":
+			gHCO3 = s.Gamma
+		}
+	}
+	if gCa > 0 && gHCO3 > 0 {
+		pK2, pKs := carbonateConstants(table, r.Temperature)
+		K := pK2 - pKs - math.Log10(gCa) - math.Log10(gHCO3)
+		ix.StiffDavis = r.PH - (-math.Log10(ca) - math.Log10(alk) + K)
+	}
+	ccpp, err := sp.calciteToEquilibrium(r, opt)
+	if err != nil {
+		warnings = append(warnings, fmt.Sprintf("CCPP not computed: %v", err))
+	} else {
+		ix.CCPP = ccpp * wpl * 1000 * 2 * equivalentMassCaCO3
+	}
+	return ix, warnings
+}
+
+// equivalentMassCaCO3 is the mass of CaCO3 per equivalent, g/eq
+// (100.086/2, IUPAC 2021 abridged atomic weights).
+const equivalentMassCaCO3 = 50.043
+
+// carbonateConstants returns pK2 of carbonic acid and pKs of calcite at
+// t °C from the table (−log K of HCO3⁻ = H⁺ + CO3²⁻ and of calcite
+// dissolution).
+func carbonateConstants(t *Table, tc float64) (pK2, pKs float64) {
+	hco3, _ := t.Entry("HCO3[-]")
+	cal, _ := t.Entry("calcite")
+	return -hco3.LogK(tc), -cal.LogK(tc)
+}
+
+// LangelierPHs returns the saturation pH of calcite in the activity-based
+// form of Standard Methods 2330:
+//
+//	pHs = pK2 − pKs + p[Ca²⁺] + p[HCO3⁻] + 5·pfm
+//
+// with [Ca²⁺] the total calcium (mol/L), [HCO3⁻] from the total alkalinity
+// alk (eq/L) corrected for carbonate, hydroxide and H⁺ at the measured pH,
+// fm the Davies activity coefficient of a monovalent ion at ionic strength
+// I (divalent ions taking fm⁴), and K2, Ks and Kw from table t at tc °C.
+//
+// References: Standard Methods for the Examination of Water and
+// Wastewater, 2330 B (form from memory); Langelier, W.F. (1936) J. AWWA
+// 28:1500; Plummer & Busenberg (1982) for K2 and Ks.
+func LangelierPHs(t *Table, tc, pH, I, ca, alk float64) float64 {
+	pK2, pKs := carbonateConstants(t, tc)
+	oh, _ := t.Entry("OH[-]")
+	kw := math.Pow(10, oh.LogK(tc))
+	A, _ := DebyeHuckel(tc)
+	sqrtI := math.Sqrt(I)
+	logFm := -A * (sqrtI/(1+sqrtI) - 0.3*I)
+	fm := math.Pow(10, logFm)
+	fd := math.Pow(fm, 4)
+	aH := math.Pow(10, -pH)
+	h := aH / fm
+	ohConc := kw / aH / fm
+	ratio := math.Pow(10, -pK2) * fm / (aH * fd) // [CO3]/[HCO3]
+	hco3 := (alk - ohConc + h) / (1 + 2*ratio)
+	if hco3 <= 0 {
+		return math.NaN()
+	}
+	return pK2 - pKs - math.Log10(ca) - math.Log10(hco3) - 5*logFm
+}
+
+// SimplifiedPHs returns the saturation pH of the common trade form,
+// pHs = (9.3 + A + B) − (C + D), with A = (log10 TDS − 1)/10,
+// B = −13.12·log10(t + 273) + 34.55, C = log10(Ca hardness, mg/L as CaCO3)
+// − 0.4, D = log10(alkalinity, mg/L as CaCO3); TDS in mg/L, t in °C.
+//
+// References: common practice (trade literature); the structure with
+// tabulated factors is in UFC 3-240-13FN (2005) Appendix B.
+func SimplifiedPHs(tds, t, caCaCO3, alkCaCO3 float64) float64 {
+	A := (math.Log10(tds) - 1) / 10
+	B := -13.12*math.Log10(t+273) + 34.55
+	C := math.Log10(caCaCO3) - 0.4
+	D := math.Log10(alkCaCO3)
+	return (9.3 + A + B) - (C + D)
+}
+
+// calciteToEquilibrium returns x, mol/kg of water, of CaCO3 that must
+// precipitate (x > 0) or dissolve (x < 0) for the water of r to reach
+// calcite saturation in a closed system: each mole removes one of Ca, one of
+// inorganic carbon and two equivalents of alkalinity.
+func (sp *Speciator) calciteToEquilibrium(r *Result, opt Options) (float64, error) {
+	return sp.mineralToEquilibrium(r, "calcite", opt)
+}
