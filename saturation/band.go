@@ -4,13 +4,11 @@ import (
 	"encoding/csv"
 	"fmt"
 	"math"
-	"strings"
 	"sync"
 
 	"github.com/gocarina/gocsv"
 
 	"scalerisk/data"
-	"scalerisk/water"
 )
 
 // Band is a plain-word risk band of a saturation index.
@@ -39,69 +37,72 @@ func (b Band) String() string { return bandNames[b] }
 
 // nearEquilibrium is the half-width of the near-equilibrium band in SI
 // units: ±0.2, the "stable" band of the Langelier scale as commonly
-// tabulated (practice.md §1.4, from memory; common practice).
+// tabulated (from memory; common practice).
 const nearEquilibrium = 0.2
 
-// Reach is what the embedded table data/inhibitor_reach.csv says of one
-// mineral.
+// Reach is what the embedded tables say of one mineral: the highest SI a
+// typical inhibitor programme holds (the "inhibitor" profile of
+// data/limits.csv) and whether it is slow to form (data/slow_minerals.csv).
 type Reach struct {
 	Mineral string
-	MaxSI   float64 // highest SI an inhibitor usually holds; NaN when no figure
-	Slow    bool    // rarely forms as scale at cooling-water temperatures
+	MaxSI   float64 // NaN when the inhibitor profile gives no figure
+	Slow    bool
 	Source  string
 }
 
-type reachRow struct {
+type slowRow struct {
 	Mineral string `csv:"mineral"`
-	MaxSI   string `csv:"max_si"`
-	Slow    string `csv:"slow"`
 	Source  string `csv:"source"`
 }
 
-var reachTable = sync.OnceValues(func() (map[string]Reach, error) {
-	f, err := data.FS.Open("inhibitor_reach.csv")
+var slowTable = sync.OnceValues(func() (map[string]string, error) {
+	f, err := data.FS.Open("slow_minerals.csv")
 	if err != nil {
 		return nil, err
 	}
 	defer f.Close()
 	r := csv.NewReader(f)
 	r.Comment = '#'
-	var rows []reachRow
+	var rows []slowRow
 	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
-		return nil, fmt.Errorf("data/inhibitor_reach.csv: %w", err)
+		return nil, fmt.Errorf("data/slow_minerals.csv: %w", err)
 	}
-	out := map[string]Reach{}
+	out := map[string]string{}
 	for _, row := range rows {
-		rc := Reach{Mineral: row.Mineral, MaxSI: math.NaN(), Slow: strings.EqualFold(row.Slow, "yes"), Source: row.Source}
-		if row.MaxSI != "" {
-			v, err := water.ParseNumber(row.MaxSI)
-			if err != nil {
-				return nil, fmt.Errorf("data/inhibitor_reach.csv: %s: max_si %q: %w", row.Mineral, row.MaxSI, err)
-			}
-			rc.MaxSI = v
-		}
-		out[rc.Mineral] = rc
+		out[row.Mineral] = row.Source
 	}
 	return out, nil
 })
 
-// InhibitorReach returns what the embedded table says of mineral, and
-// whether it says anything.
+// InhibitorReach returns what the embedded tables say of mineral, and
+// whether they say anything.
 func InhibitorReach(mineral string) (Reach, bool) {
-	t, err := reachTable()
+	slow, err := slowTable()
 	if err != nil {
-		panic("saturation: embedded inhibitor table is broken: " + err.Error())
+		panic("saturation: embedded slow-mineral table is broken: " + err.Error())
 	}
-	r, ok := t[mineral]
-	return r, ok
+	r := Reach{Mineral: mineral, MaxSI: math.NaN()}
+	src, isSlow := slow[mineral]
+	if isSlow {
+		r.Slow, r.Source = true, src
+	}
+	prof, _ := LimitProfileNamed("inhibitor")
+	l, hasLimit := prof.Lookup("si:" + mineral)
+	if hasLimit {
+		r.MaxSI = l.Max
+		if !isSlow {
+			r.Source = l.Source
+		}
+	}
+	return r, isSlow || hasLimit
 }
 
 // RiskBand returns the plain-word band of saturation index si of mineral:
 // undersaturated below −0.2, near equilibrium to +0.2, and above that
 // "slow to form" for minerals that rarely scale at these temperatures,
-// "within inhibitor reach" up to the common inhibitor figure of
-// data/inhibitor_reach.csv, "beyond inhibitor reach" above it, and plain
-// "supersaturated" where there is no figure.
+// "within inhibitor reach" up to the inhibitor profile's limit,
+// "beyond inhibitor reach" above it, and plain "supersaturated" where the
+// profile gives no figure.
 func RiskBand(mineral string, si float64) Band {
 	switch {
 	case si < -nearEquilibrium:

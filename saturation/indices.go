@@ -43,6 +43,10 @@ type Indices struct {
 // water; its failure leaves CCPP NaN with a note in the returned warnings.
 // Indices need calcium and alkalinity; without them every field is NaN.
 func (sp *Speciator) ClassicIndices(r *Result, opt Options) (Indices, []string) {
+	return sp.classicIndices(r, opt, true)
+}
+
+func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indices, []string) {
 	nan := math.NaN()
 	ix := Indices{LSI: nan, PHs: nan, LSISimplified: nan, RSI: nan, PSI: nan, StiffDavis: nan, LarsonSkold: nan, CCPP: nan}
 	a := r.Analysis
@@ -84,6 +88,9 @@ func (sp *Speciator) ClassicIndices(r *Result, opt Options) (Indices, []string) 
 		pK2, pKs := carbonateConstants(table, r.Temperature)
 		K := pK2 - pKs - math.Log10(gCa) - math.Log10(gHCO3)
 		ix.StiffDavis = r.PH - (-math.Log10(ca) - math.Log10(alk) + K)
+	}
+	if !withCCPP {
+		return ix, warnings
 	}
 	ccpp, err := sp.calciteToEquilibrium(r, opt)
 	if err != nil {
