@@ -19,24 +19,77 @@ import (
 // SampleJSON is one sample of the JSON output of assess. The key names are
 // a contract that other programs parse: extend, never rename.
 type SampleJSON struct {
-	Name                 string             `json:"name"`
-	File                 string             `json:"file,omitempty"`
-	Line                 int                `json:"line,omitempty"`
-	TemperatureC         *float64           `json:"temperature_c,omitempty"`
-	PH                   *float64           `json:"ph,omitempty"`
-	ActivityModel        string             `json:"activity_model,omitempty"`
-	IonicStrength        *float64           `json:"ionic_strength,omitempty"`
-	ChargeBalancePercent *float64           `json:"charge_balance_percent,omitempty"`
-	AlkalinityMeqPerKg   *float64           `json:"alkalinity_meq_per_kg,omitempty"`
-	LogPCO2              *float64           `json:"log_pco2,omitempty"`
-	SaturationIndex      map[string]float64 `json:"saturation_index,omitempty"`
-	RiskBand             map[string]string  `json:"risk_band,omitempty"`
-	Species              []SpeciesJSON      `json:"species,omitempty"`
-	Totals               map[string]float64 `json:"totals,omitempty"`
-	Quality              *QualityJSON       `json:"quality,omitempty"`
-	BelowDetection       []string           `json:"below_detection,omitempty"`
-	Warnings             []string           `json:"warnings"`
-	Error                *string            `json:"error"`
+	Name                 string              `json:"name"`
+	File                 string              `json:"file,omitempty"`
+	Line                 int                 `json:"line,omitempty"`
+	TemperatureC         *float64            `json:"temperature_c,omitempty"`
+	PH                   *float64            `json:"ph,omitempty"`
+	ActivityModel        string              `json:"activity_model,omitempty"`
+	IonicStrength        *float64            `json:"ionic_strength,omitempty"`
+	ChargeBalancePercent *float64            `json:"charge_balance_percent,omitempty"`
+	AlkalinityMeqPerKg   *float64            `json:"alkalinity_meq_per_kg,omitempty"`
+	LogPCO2              *float64            `json:"log_pco2,omitempty"`
+	SaturationIndex      map[string]float64  `json:"saturation_index,omitempty"`
+	RiskBand             map[string]string   `json:"risk_band,omitempty"`
+	Indices              *IndicesJSON        `json:"indices,omitempty"`
+	Precipitation        []PrecipitationJSON `json:"precipitation,omitempty"`
+	Species              []SpeciesJSON       `json:"species,omitempty"`
+	Totals               map[string]float64  `json:"totals,omitempty"`
+	Quality              *QualityJSON        `json:"quality,omitempty"`
+	BelowDetection       []string            `json:"below_detection,omitempty"`
+	Warnings             []string            `json:"warnings"`
+	Error                *string             `json:"error"`
+}
+
+// IndicesJSON holds the classic indices; a key is left out where the
+// water lacks what the index needs.
+type IndicesJSON struct {
+	LSI           *float64 `json:"lsi,omitempty"`
+	LSISimplified *float64 `json:"lsi_simplified,omitempty"`
+	RSI           *float64 `json:"rsi,omitempty"`
+	PSI           *float64 `json:"psi,omitempty"`
+	StiffDavis    *float64 `json:"stiff_davis,omitempty"`
+	LarsonSkold   *float64 `json:"larson_skold,omitempty"`
+	CCPP          *float64 `json:"ccpp_mg_per_l,omitempty"`
+	PHs           *float64 `json:"phs,omitempty"`
+}
+
+// PrecipitationJSON is the scale one supersaturated mineral could form:
+// mg of mineral per litre alone and together with the others, and kg/day
+// where a flow was given.
+type PrecipitationJSON struct {
+	Mineral          string   `json:"mineral"`
+	SaturationIndex  float64  `json:"saturation_index"`
+	AloneMgPerL      *float64 `json:"alone_mg_per_l,omitempty"`
+	TogetherMgPerL   *float64 `json:"together_mg_per_l,omitempty"`
+	AloneKgPerDay    *float64 `json:"alone_kg_per_day,omitempty"`
+	TogetherKgPerDay *float64 `json:"together_kg_per_day,omitempty"`
+}
+
+func indicesJSON(ix *saturation.Indices) *IndicesJSON {
+	if ix == nil {
+		return nil
+	}
+	d2 := func(x float64) float64 { return dec(x, 2) }
+	return &IndicesJSON{LSI: optional(ix.LSI, d2), LSISimplified: optional(ix.LSISimplified, d2),
+		RSI: optional(ix.RSI, d2), PSI: optional(ix.PSI, d2), StiffDavis: optional(ix.StiffDavis, d2),
+		LarsonSkold: optional(ix.LarsonSkold, d2), CCPP: optional(ix.CCPP, func(x float64) float64 { return dec(x, 1) }),
+		PHs: optional(ix.PHs, d2)}
+}
+
+func precipitationJSON(ps []saturation.Precipitation, flow float64) []PrecipitationJSON {
+	var out []PrecipitationJSON
+	mg := func(x float64) float64 { return sig(x, 4) }
+	for _, p := range ps {
+		j := PrecipitationJSON{Mineral: p.Mineral, SaturationIndex: dec(p.SI, 3),
+			AloneMgPerL: optional(p.Alone, mg), TogetherMgPerL: optional(p.Together, mg)}
+		if flow > 0 {
+			j.AloneKgPerDay = optional(saturation.KgPerDay(p.Alone, flow), mg)
+			j.TogetherKgPerDay = optional(saturation.KgPerDay(p.Together, flow), mg)
+		}
+		out = append(out, j)
+	}
+	return out
 }
 
 // SpeciesJSON is one aqueous species: molality in mol/kg of water.
@@ -112,6 +165,9 @@ func Sample(as saturation.Assessment) SampleJSON {
 			Gamma: sig(sp.Gamma, 5), Activity: sig(sp.Activity, 5)})
 	}
 	s.Warnings = append(s.Warnings, r.Warnings...)
+	s.Indices = indicesJSON(as.Indices)
+	s.Precipitation = precipitationJSON(as.Precipitation, as.Flow)
+	s.Warnings = append(s.Warnings, as.Warnings...)
 	return s
 }
 
@@ -200,7 +256,8 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 	minerals := mineralOrder(as)
 	cw := csv.NewWriter(w)
 	header := []string{"name", "file", "line", "temperature_c", "ph", "ionic_strength", "activity_model",
-		"charge_balance_percent", "alkalinity_meq_per_kg"}
+		"charge_balance_percent", "alkalinity_meq_per_kg",
+		"lsi", "lsi_simplified", "rsi", "psi", "stiff_davis", "larson_skold", "ccpp_mg_per_l"}
 	for _, c := range water.Components() {
 		header = append(header, "total_"+c.String()+"_mol_per_kg")
 	}
@@ -215,6 +272,12 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 		s := Sample(a)
 		row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
 			fmtG(s.IonicStrength), s.ActivityModel, formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
+		ix := s.Indices
+		if ix == nil {
+			ix = &IndicesJSON{}
+		}
+		row = append(row, fmtG(ix.LSI), fmtG(ix.LSISimplified), fmtG(ix.RSI), fmtG(ix.PSI), fmtG(ix.StiffDavis),
+			fmtG(ix.LarsonSkold), fmtG(ix.CCPP))
 		for _, c := range water.Components() {
 			if v, ok := s.Totals[c.String()]; ok {
 				row = append(row, strconv.FormatFloat(v, 'g', -1, 64))
@@ -269,12 +332,14 @@ func writeAssessText(w io.Writer, as []saturation.Assessment) error {
 			fmt.Fprintf(&b, "  speciation failed: %v\n", a.Err)
 		} else {
 			writeResultText(&b, a.Result)
+			writeIndicesText(&b, a)
 		}
 		var warnings []string
 		warnings = append(warnings, a.Input.BelowDetection...)
 		warnings = append(warnings, a.Input.Warnings...)
 		if a.Result != nil {
 			warnings = append(warnings, a.Result.Warnings...)
+			warnings = append(warnings, a.Warnings...)
 		}
 		if len(warnings) > 0 {
 			b.WriteString("  Notes\n")
@@ -360,6 +425,64 @@ func writeResultText(b *strings.Builder, r *saturation.Result) {
 	for _, m := range ms {
 		fmt.Fprintf(b, "    %-*s  %-*s  %+7.2f  %s\n", nameW, m.Name, formW, m.Formula, m.SI, saturation.RiskBand(m.Name, m.SI))
 	}
+}
+
+// writeIndicesText writes the classic indices and the scale that could
+// form, in plain words.
+func writeIndicesText(b *strings.Builder, a saturation.Assessment) {
+	if ix := a.Indices; ix != nil {
+		var parts []string
+		add := func(name string, v float64, format string) {
+			if !math.IsNaN(v) {
+				parts = append(parts, fmt.Sprintf("%s "+format, name, v))
+			}
+		}
+		add("LSI", ix.LSI, "%+.2f")
+		add("LSI simplified form", ix.LSISimplified, "%+.2f")
+		add("RSI", ix.RSI, "%.2f")
+		add("PSI", ix.PSI, "%.2f")
+		add("Stiff–Davis", ix.StiffDavis, "%+.2f")
+		add("Larson–Skold", ix.LarsonSkold, "%.2f")
+		if len(parts) > 0 {
+			fmt.Fprintf(b, "  Classic indices: %s\n", strings.Join(parts, ", "))
+		}
+		if !math.IsNaN(ix.CCPP) {
+			verb := "would precipitate"
+			if ix.CCPP < 0 {
+				verb = "would dissolve"
+			}
+			fmt.Fprintf(b, "  CCPP %.1f mg/L as CaCO3: calcium carbonate that %s to reach equilibrium (Standard Methods 2330 sign)\n",
+				math.Abs(ix.CCPP), verb)
+		}
+	}
+	var ps []saturation.Precipitation
+	for _, p := range a.Precipitation {
+		if p.Alone > 0.005 || p.Together > 0.005 {
+			ps = append(ps, p)
+		}
+	}
+	if len(ps) == 0 {
+		return
+	}
+	b.WriteString("  Scale that could form to reach equilibrium (closed system, mg of mineral per litre):\n")
+	w := len("mineral")
+	for _, p := range ps {
+		w = max(w, len(p.Mineral))
+	}
+	for _, p := range ps {
+		line := fmt.Sprintf("    %-*s  %9s alone  %9s with the others", w, p.Mineral, mgText(p.Alone), mgText(p.Together))
+		if a.Flow > 0 && !math.IsNaN(p.Together) {
+			line += fmt.Sprintf("  (%.3g kg/day at %g m³/h)", saturation.KgPerDay(p.Together, a.Flow), a.Flow)
+		}
+		b.WriteString(line + "\n")
+	}
+}
+
+func mgText(v float64) string {
+	if math.IsNaN(v) {
+		return "n/a"
+	}
+	return strconv.FormatFloat(sig(v, 3), 'f', -1, 64)
 }
 
 // wrap breaks text into lines of at most width characters at spaces.

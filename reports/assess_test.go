@@ -154,12 +154,12 @@ func TestCSVColumns(t *testing.T) {
 		t.Fatalf("%d CSV rows, want a header and 3 samples", len(rows))
 	}
 	header := rows[0]
-	want := 9 + len(water.Components()) + 4 + 2 // fixed, totals, 4 minerals, error and warnings
+	want := 9 + 7 + len(water.Components()) + 4 + 2 // fixed, 7 indices, totals, 4 minerals, error and warnings
 	if len(header) != want {
 		t.Errorf("header has %d columns, want %d: %v", len(header), want, header)
 	}
 	for _, col := range []string{"name", "temperature_c", "ph", "ionic_strength", "activity_model",
-		"charge_balance_percent", "total_Ca_mol_per_kg", "total_C_mol_per_kg", "si_calcite", "si_celestite"} {
+		"charge_balance_percent", "lsi", "rsi", "ccpp_mg_per_l", "total_Ca_mol_per_kg", "total_C_mol_per_kg", "si_calcite", "si_celestite"} {
 		if !slices.Contains(header, col) {
 			t.Errorf("header lacks %q", col)
 		}

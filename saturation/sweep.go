@@ -49,9 +49,10 @@ type Axis struct {
 // Point is one point of a sweep: the values of the axes (Y is NaN for a
 // one-axis sweep) and the equilibrium state there, or why it failed.
 type Point struct {
-	X, Y   float64
-	Result *Result
-	Err    error
+	X, Y    float64
+	Result  *Result
+	Indices Indices // classic indices without the CCPP
+	Err     error
 }
 
 // Range returns n values evenly spaced from lo to hi inclusive (n ≥ 2;
@@ -128,6 +129,9 @@ func Sweep(a water.Analysis, x Axis, y *Axis, opt Options) ([]Point, error) {
 			w, o, err := applySettings(base, partner, settings, x, y, opt)
 			if err == nil {
 				pt.Result, err = sp.Speciate(w, o)
+			}
+			if err == nil {
+				pt.Indices, _ = sp.ClassicIndicesNoCCPP(pt.Result)
 			}
 			pt.Err = err
 			points = append(points, pt)

@@ -43,6 +43,7 @@ func newRootCmd(stdin io.Reader) *cobra.Command {
 		SilenceErrors: true,
 	}
 	root.AddCommand(newAssessCmd(stdin), newMineralsCmd())
+	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin))
 	return root
 }
 

@@ -1,0 +1,364 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"scalerisk/reports"
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// forEachGood runs fn on every good record of the inputs and counts the
+// failures it reports on stderr.
+func forEachGood(files []fileRecords, stderr io.Writer, fn func(file string, rec water.Record) error) int {
+	failures := 0
+	for _, f := range files {
+		for _, rec := range f.records {
+			if rec.Err != nil {
+				continue
+			}
+			if err := fn(f.name, rec); err != nil {
+				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, rec.Line, err)
+				failures++
+			}
+		}
+	}
+	return failures
+}
+
+func newDoseCmd(stdin io.Reader) *cobra.Command {
+	c := &commonFlags{}
+	var reagent, target, carbonate string
+	var strength float64
+	cmd := &cobra.Command{
+		Use:   "dose [FILE...|-] --reagent NAME --target QUANTITY=VALUE",
+		Short: "Dose of a reagent that brings each water to a target, and what it does to every mineral",
+		Long: "dose finds, for each sample, the dose of a reagent (mg/L of product) that brings a\n" +
+			"quantity to a target — ph=7.0, lsi=0.5, rsi=6, psi=6 or si:calcite=0.8 — and shows what\n" +
+			"the dose does to every other mineral and index: the sulfate of sulfuric acid raises gypsum,\n" +
+			"barite and celestite (the common-ion effect); the chloride of hydrochloric acid raises the\n" +
+			"Larson–Skold index. Reagents: " + reagentNames() + ".\n\n" +
+			reports.DoseCaution,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			format, opt, ropt, err := c.setup(cmd)
+			if err != nil {
+				return err
+			}
+			r, err := water.LookupReagent(reagent)
+			if err != nil {
+				return badInput(err)
+			}
+			tgt, err := saturation.ParseTarget(target, opt.Model)
+			if err != nil {
+				return badInput(err)
+			}
+			rule, err := saturation.ParseCarbonateRule(carbonate)
+			if err != nil {
+				return badInput(err)
+			}
+			if rule.A != 0 {
+				return badInput(errors.New("--carbonate natural or relation= applies to cycles; dose takes closed, air or ph=VALUE"))
+			}
+			opt.Carbonate, opt.PH = rule.Mode, rule.PH
+			if strength != 0 && !(strength > 0 && strength <= 100) {
+				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
+			}
+			inputs := c.inputs(args)
+			if len(inputs) == 0 {
+				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			}
+			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
+			var out []reports.DoseOutcome
+			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+				d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
+				out = append(out, reports.DoseOutcome{Name: rec.Name, Result: d, Flow: opt.Flow, Err: err})
+				return err
+			})
+			if err := reports.WriteDoses(cmd.OutOrStdout(), format, out); err != nil {
+				return &exitError{code: exitInternal, err: err}
+			}
+			return finish(problems, failures)
+		},
+	}
+	c.register(cmd)
+	f := cmd.Flags()
+	f.StringVar(&reagent, "reagent", "", "reagent by formula: "+reagentNames())
+	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+	f.StringVar(&target, "target", "", "target: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE or si:MINERAL=VALUE")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system after dosing: closed (CO2 stays), air or ph=VALUE")
+	cmd.MarkFlagRequired("reagent")
+	cmd.MarkFlagRequired("target")
+	return cmd
+}
+
+// reagentNames lists the reagent table's names.
+func reagentNames() string {
+	var names []string
+	for _, r := range water.Reagents() {
+		names = append(names, r.Name)
+	}
+	return strings.Join(names, ", ")
+}
+
+func newCyclesCmd(stdin io.Reader) *cobra.Command {
+	c := &commonFlags{}
+	var limits, carbonate string
+	var maxN, step, evaporation float64
+	cmd := &cobra.Command{
+		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate closed|air|ph=V|natural|relation=A,B]",
+		Short: "Highest cycles of concentration of a makeup water under a limit profile, and the limiting mineral",
+		Long: "cycles concentrates each makeup water by 1 to --max cycles (conservative ions times N),\n" +
+			"finds its carbonate state by --carbonate — closed (CO2 stays), air (equilibrium with air\n" +
+			"CO2, as in a tower), ph=VALUE (acid-controlled pH), natural (pH = 1.465·log10(TA) + 4.54,\n" +
+			"the relation of untreated towers; common practice) or relation=A,B (your tower's own\n" +
+			"pH = A·log10(TA) + B) — and returns the highest cycles at which every limit of the profile\n" +
+			"holds, naming the limiting mineral. Profiles: no-inhibitor and inhibitor (data/limits.csv,\n" +
+			"each limit with its source), or a CSV of your own (columns quantity, max, source).\n" +
+			"Temperature: the sample's, or --temperature (use the hottest heat-exchanger skin).\n\n" + reports.Caution,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			format, opt, ropt, err := c.setup(cmd)
+			if err != nil {
+				return err
+			}
+			profile, err := loadProfile(limits, opt.Model)
+			if err != nil {
+				return err
+			}
+			rule, err := saturation.ParseCarbonateRule(carbonate)
+			if err != nil {
+				return badInput(err)
+			}
+			if !(maxN > 1 && maxN <= 100) {
+				return badInput(fmt.Errorf("--max %g: want more than 1 and at most 100 cycles", maxN))
+			}
+			if !(step > 0) || !(evaporation >= 0) {
+				return badInput(errors.New("--step must be positive and --evaporation 0 or more"))
+			}
+			inputs := c.inputs(args)
+			if len(inputs) == 0 {
+				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			}
+			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
+			var out []reports.CyclesOutcome
+			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+				r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
+				out = append(out, reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Result: r, Evaporation: evaporation, Err: err})
+				return err
+			})
+			if err := reports.WriteCycles(cmd.OutOrStdout(), format, out); err != nil {
+				return &exitError{code: exitInternal, err: err}
+			}
+			return finish(problems, failures)
+		},
+	}
+	c.register(cmd)
+	f := cmd.Flags()
+	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate rule: closed, air, ph=VALUE, natural or relation=A,B")
+	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
+	f.Float64Var(&step, "step", 0.5, "step of the cycles table")
+	f.Float64Var(&evaporation, "evaporation", 0, "evaporation of the tower, m³/h, to give make-up and blowdown")
+	return cmd
+}
+
+// loadProfile returns an embedded profile by name or the first profile of
+// a CSV file.
+func loadProfile(name string, m *saturation.Model) (saturation.LimitProfile, error) {
+	if p, err := saturation.LimitProfileNamed(name); err == nil {
+		return p, nil
+	}
+	f, err := os.Open(name)
+	if err != nil {
+		_, nerr := saturation.LimitProfileNamed(name)
+		return saturation.LimitProfile{}, badInput(fmt.Errorf("%v; and no file %q", nerr, name))
+	}
+	defer f.Close()
+	ps, err := saturation.ReadLimits(name, f, m)
+	if err != nil {
+		return saturation.LimitProfile{}, badInput(err)
+	}
+	return ps[0], nil
+}
+
+func newSweepCmd(stdin io.Reader) *cobra.Command {
+	c := &commonFlags{}
+	var vary []string
+	var reagent, partner, carbonate string
+	var strength float64
+	cmd := &cobra.Command{
+		Use:   "sweep [FILE...|-] --vary NAME=FROM:TO:N [--vary NAME=FROM:TO:N]",
+		Short: "Every saturation index and index of each water over a range of temperature, cycles, dose or blend",
+		Long: "sweep varies one or two of temperature (°C; the water re-speciated at each, closed carbonate\n" +
+			"system), cycles (concentration), dose (mg/L of --reagent) and fraction (share of the water in\n" +
+			"a blend with the first sample of --partner FILE), each as NAME=FROM:TO:N (N values), and\n" +
+			"gives every saturation index and classic index at each point; with two --vary it is a grid.\n\n" +
+			reports.Caution,
+		RunE: func(cmd *cobra.Command, args []string) error {
+			format, opt, ropt, err := c.setup(cmd)
+			if err != nil {
+				return err
+			}
+			if len(vary) == 0 || len(vary) > 2 {
+				return badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
+			}
+			rule, err := saturation.ParseCarbonateRule(carbonate)
+			if err != nil || rule.A != 0 {
+				return badInput(errors.New("--carbonate: closed, air or ph=VALUE"))
+			}
+			opt.Carbonate, opt.PH = rule.Mode, rule.PH
+			axes := make([]saturation.Axis, len(vary))
+			for i, v := range vary {
+				if axes[i], err = parseAxis(v); err != nil {
+					return badInput(err)
+				}
+				switch axes[i].Var {
+				case saturation.VaryDose:
+					r, err := water.LookupReagent(reagent)
+					if err != nil {
+						return badInput(fmt.Errorf("--vary dose needs --reagent: %w", err))
+					}
+					axes[i].Reagent, axes[i].Strength = r, strength
+				case saturation.VaryFraction:
+					pw, err := firstSample(partner, "", stdin, ropt)
+					if err != nil {
+						return err
+					}
+					axes[i].Partner = pw
+				}
+			}
+			var y *saturation.Axis
+			if len(axes) == 2 {
+				y = &axes[1]
+			}
+			inputs := c.inputs(args)
+			if len(inputs) == 0 {
+				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			}
+			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
+			var out []reports.SweepOutcome
+			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+				pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
+				out = append(out, reports.SweepOutcome{Name: rec.Name, X: axes[0], Y: y, Points: pts, Err: err})
+				return err
+			})
+			if err := reports.WriteSweeps(cmd.OutOrStdout(), format, out); err != nil {
+				return &exitError{code: exitInternal, err: err}
+			}
+			return finish(problems, failures)
+		},
+	}
+	c.register(cmd)
+	f := cmd.Flags()
+	f.StringArrayVar(&vary, "vary", nil, "variable and range: temperature|cycles|dose|fraction=FROM:TO:N (once or twice)")
+	f.StringVar(&reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
+	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+	f.StringVar(&partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed, air or ph=VALUE")
+	return cmd
+}
+
+// parseAxis reads NAME=FROM:TO:N.
+func parseAxis(s string) (saturation.Axis, error) {
+	name, rng, ok := strings.Cut(s, "=")
+	if !ok {
+		return saturation.Axis{}, fmt.Errorf("--vary %q: want NAME=FROM:TO:N", s)
+	}
+	v, err := saturation.ParseVariable(strings.TrimSpace(name))
+	if err != nil {
+		return saturation.Axis{}, err
+	}
+	parts := strings.Split(rng, ":")
+	if len(parts) != 3 {
+		return saturation.Axis{}, fmt.Errorf("--vary %q: want FROM:TO:N", s)
+	}
+	from, err1 := water.ParseNumber(parts[0])
+	to, err2 := water.ParseNumber(parts[1])
+	n, err3 := water.ParseNumber(parts[2])
+	if err1 != nil || err2 != nil || err3 != nil || n < 1 || n > 1000 || n != float64(int(n)) {
+		return saturation.Axis{}, fmt.Errorf("--vary %q: FROM and TO are numbers, N a whole number from 1 to 1000", s)
+	}
+	return saturation.Axis{Var: v, Values: saturation.Range(from, to, int(n))}, nil
+}
+
+// firstSample returns the sample named name of a file (the first good one
+// when name is empty).
+func firstSample(file, name string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+	if file == "" {
+		return water.Analysis{}, badInput(errors.New("a blend needs a second water (--partner FILE)"))
+	}
+	records, probs, err := readInput(input{name: file}, stdin, ropt)
+	if err != nil {
+		return water.Analysis{}, badInput(err)
+	}
+	if len(probs) > 0 {
+		return water.Analysis{}, badInput(probs[0])
+	}
+	for _, r := range records {
+		if r.Err == nil && (name == "" || r.Name == name) {
+			return r.Analysis, nil
+		}
+	}
+	if name != "" {
+		return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", file, name))
+	}
+	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample", file))
+}
+
+func newBlendCmd(stdin io.Reader) *cobra.Command {
+	c := &commonFlags{}
+	var fraction float64
+	var samples []string
+	cmd := &cobra.Command{
+		Use:   "blend A.csv B.csv --fraction F [--sample NAME_A] [--sample NAME_B]",
+		Short: "Mix two waters and assess the blend (computed from totals and re-speciated)",
+		Long: "blend mixes the first sample of A.csv (or --sample NAME) with the first sample of B.csv\n" +
+			"(or a second --sample NAME) by volume, F being the share of the first water, and assesses\n" +
+			"the blend like assess. The blend is computed from the totals and re-speciated, never by\n" +
+			"averaging indices.\n\n" + reports.Caution,
+		Args: cobra.ExactArgs(2),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			format, opt, ropt, err := c.setup(cmd)
+			if err != nil {
+				return err
+			}
+			if !(fraction >= 0 && fraction <= 1) {
+				return badInput(fmt.Errorf("--fraction %g: want a share from 0 to 1", fraction))
+			}
+			if len(samples) > 2 {
+				return badInput(errors.New("--sample: at most two names, one per file"))
+			}
+			names := append(samples, "", "")[:2]
+			var ws []water.Analysis
+			for i, file := range args {
+				w, err := firstSample(file, names[i], stdin, ropt)
+				if err != nil {
+					return err
+				}
+				ws = append(ws, w)
+			}
+			blend, err := saturation.BlendWaters(ws, []float64{fraction, 1 - fraction}, opt)
+			if err != nil {
+				return &exitError{code: exitInternal, err: err}
+			}
+			as := saturation.AssessAnalysis(blend, opt)
+			if err := reports.WriteAssessments(cmd.OutOrStdout(), format, []saturation.Assessment{as}); err != nil {
+				return &exitError{code: exitInternal, err: err}
+			}
+			if as.Err != nil {
+				fmt.Fprintln(cmd.ErrOrStderr(), as.Err)
+				return finish(0, 1)
+			}
+			return nil
+		},
+	}
+	c.register(cmd)
+	cmd.Flags().Float64Var(&fraction, "fraction", 0.5, "share of the first water in the blend, 0–1 (by volume)")
+	cmd.Flags().StringArrayVar(&samples, "sample", nil, "sample name in the first file, then in the second (default: the first sample of each)")
+	return cmd
+}

@@ -1,0 +1,344 @@
+package reports
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// writeJSON writes v as indented JSON without HTML escaping.
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(v)
+}
+
+// outcomeSample turns a water after a treatment into the assess JSON
+// object.
+func outcomeSample(name string, o saturation.Outcome) SampleJSON {
+	ix := o.Indices
+	return Sample(saturation.Assessment{Name: name, Input: o.Water, Quality: o.Water.Quality(), Result: o.Result, Indices: &ix})
+}
+
+// DoseJSON is one sample of the JSON output of dose. The key names are a
+// contract: extend, never rename.
+type DoseJSON struct {
+	Name            string      `json:"name"`
+	Reagent         string      `json:"reagent"`
+	StrengthPercent float64     `json:"strength_percent"`
+	Target          string      `json:"target"`
+	DoseMgPerL      float64     `json:"dose_mg_per_l"`
+	DoseKgPerDay    *float64    `json:"dose_kg_per_day,omitempty"`
+	Reached         bool        `json:"reached"`
+	Before          *SampleJSON `json:"before,omitempty"`
+	After           *SampleJSON `json:"after,omitempty"`
+	Warnings        []string    `json:"warnings"`
+	Error           *string     `json:"error"`
+}
+
+// DoseOutcome is the dose answer for one sample, or why there is none.
+type DoseOutcome struct {
+	Name   string
+	Result *saturation.DoseResult
+	Flow   float64 // m³/h, 0 when not given
+	Err    error
+}
+
+// WriteDoses writes dose answers in format f.
+func WriteDoses(w io.Writer, f Format, ds []DoseOutcome) error {
+	var js []DoseJSON
+	for _, d := range ds {
+		j := DoseJSON{Name: d.Name, Warnings: []string{}}
+		if d.Err != nil {
+			msg := d.Err.Error()
+			j.Error = &msg
+			js = append(js, j)
+			continue
+		}
+		r := d.Result
+		j.Reagent, j.StrengthPercent, j.Target = r.Reagent.Name, r.Strength, r.Target.String()
+		j.DoseMgPerL, j.Reached = sig(r.Dose, 5), r.Reached
+		if d.Flow > 0 {
+			j.DoseKgPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow), func(x float64) float64 { return sig(x, 4) })
+		}
+		before, after := outcomeSample(d.Name, r.Before), outcomeSample(d.Name, r.After)
+		j.Before, j.After = &before, &after
+		j.Warnings = append(j.Warnings, r.Warnings...)
+		js = append(js, j)
+	}
+	switch f {
+	case JSON:
+		return writeJSON(w, struct {
+			Samples []DoseJSON `json:"samples"`
+			Caution string     `json:"caution"`
+		}{js, DoseCaution})
+	case CSV:
+		cw := csv.NewWriter(w)
+		cw.Write([]string{"name", "reagent", "strength_percent", "target", "dose_mg_per_l", "dose_kg_per_day", "reached",
+			"ph_before", "ph_after", "lsi_before", "lsi_after", "error", "warnings"})
+		for _, j := range js {
+			row := []string{j.Name, j.Reagent, fmtF(j.StrengthPercent), j.Target, fmtF(j.DoseMgPerL), fmtG(j.DoseKgPerDay),
+				strconv.FormatBool(j.Reached)}
+			if j.Before != nil {
+				row = append(row, fmtG(j.Before.PH), fmtG(j.After.PH), fmtG(lsiOf(j.Before)), fmtG(lsiOf(j.After)))
+			} else {
+				row = append(row, "", "", "", "")
+			}
+			row = append(row, errOf(j.Error), strings.Join(j.Warnings, "; "))
+			cw.Write(row)
+		}
+		cw.Flush()
+		return cw.Error()
+	}
+	var b strings.Builder
+	for i, d := range ds {
+		if i > 0 {
+			b.WriteString("\n")
+		}
+		if d.Err != nil {
+			fmt.Fprintf(&b, "%s: not computed: %v\n", d.Name, d.Err)
+			continue
+		}
+		r := d.Result
+		if r.Reached {
+			fmt.Fprintf(&b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, r.Target.Kind, r.Target.Value)
+			if d.Flow > 0 {
+				fmt.Fprintf(&b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
+			}
+			b.WriteString(".\n")
+		} else {
+			fmt.Fprintf(&b, "%s: %s does not reach %s.\n", d.Name, r.Reagent.Name, r.Target)
+		}
+		writeOutcomeChange(&b, r.Before, r.After)
+		if len(r.Warnings) > 0 {
+			b.WriteString("  Notes\n")
+			for _, wn := range r.Warnings {
+				fmt.Fprintf(&b, "    - %s\n", wn)
+			}
+		}
+	}
+	b.WriteString("\n" + wrap(DoseCaution, 78) + "\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// DoseCaution is the caution every dose answer carries.
+const DoseCaution = "Acid and caustic dosing is hazardous: overfeed gives low pH and corrosion, acids and " +
+	"caustic burn, sulfuric acid dilution is strongly exothermic (add acid to water), and acids must " +
+	"never meet hypochlorite feeds. Control the feed on measured pH, respect discharge limits, and " +
+	"follow the SDS, local codes and licensed practice. " + Caution
+
+func lsiOf(s *SampleJSON) *float64 {
+	if s == nil || s.Indices == nil {
+		return nil
+	}
+	return s.Indices.LSI
+}
+
+func errOf(p *string) string {
+	if p == nil {
+		return ""
+	}
+	return *p
+}
+
+func fmtF(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+
+// writeOutcomeChange lists pH, LSI and the minerals whose SI a treatment
+// moves, before → after.
+func writeOutcomeChange(b *strings.Builder, before, after saturation.Outcome) {
+	fmt.Fprintf(b, "  pH %.2f → %.2f", before.Result.PH, after.Result.PH)
+	if !math.IsNaN(before.Indices.LSI) && !math.IsNaN(after.Indices.LSI) {
+		fmt.Fprintf(b, ", LSI %+.2f → %+.2f", before.Indices.LSI, after.Indices.LSI)
+	}
+	if !math.IsNaN(before.Indices.LarsonSkold) && !math.IsNaN(after.Indices.LarsonSkold) {
+		fmt.Fprintf(b, ", Larson–Skold %.2f → %.2f", before.Indices.LarsonSkold, after.Indices.LarsonSkold)
+	}
+	b.WriteString("\n")
+	w := len("mineral")
+	for _, m := range after.Result.Minerals {
+		w = max(w, len(m.Name))
+	}
+	for _, m := range after.Result.Minerals {
+		sb, ok := before.Result.SI(m.Name)
+		if !ok || math.Abs(m.SI-sb) < 0.005 || (sb < -1 && m.SI < -1) {
+			continue
+		}
+		fmt.Fprintf(b, "    %-*s  %+6.2f → %+6.2f  %s\n", w, m.Name, sb, m.SI, saturation.RiskBand(m.Name, m.SI))
+	}
+}
+
+// CyclesJSON is one sample of the JSON output of cycles.
+type CyclesJSON struct {
+	Name            string            `json:"name"`
+	Profile         string            `json:"profile"`
+	Carbonate       string            `json:"carbonate"`
+	MaxCycles       float64           `json:"max_cycles"`
+	Limiting        string            `json:"limiting"`
+	Exceeded        []string          `json:"exceeded,omitempty"`
+	MakeupM3PerH    *float64          `json:"makeup_m3_per_h,omitempty"`
+	BlowdownM3PerH  *float64          `json:"blowdown_m3_per_h,omitempty"`
+	Points          []CyclesPointJSON `json:"points"`
+	Warnings        []string          `json:"warnings"`
+	Error           *string           `json:"error"`
+	LimitsAtMaximum map[string]string `json:"limits,omitempty"`
+}
+
+// CyclesPointJSON is the water at one number of cycles.
+type CyclesPointJSON struct {
+	Cycles          float64            `json:"cycles"`
+	PH              *float64           `json:"ph,omitempty"`
+	IonicStrength   *float64           `json:"ionic_strength,omitempty"`
+	SaturationIndex map[string]float64 `json:"saturation_index,omitempty"`
+	LSI             *float64           `json:"lsi,omitempty"`
+	Error           *string            `json:"error,omitempty"`
+}
+
+// CyclesOutcome is the cycles answer for one sample.
+type CyclesOutcome struct {
+	Name        string
+	Carbonate   string
+	Result      *saturation.CyclesResult
+	Evaporation float64 // m³/h, 0 when not given
+	Err         error
+}
+
+// WriteCycles writes cycles answers in format f.
+func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
+	var js []CyclesJSON
+	for _, c := range cs {
+		j := CyclesJSON{Name: c.Name, Carbonate: c.Carbonate, Warnings: []string{}, Points: []CyclesPointJSON{}}
+		if c.Err != nil {
+			msg := c.Err.Error()
+			j.Error = &msg
+			js = append(js, j)
+			continue
+		}
+		r := c.Result
+		j.Profile, j.MaxCycles, j.Limiting, j.Exceeded = r.Profile.Name, dec(r.MaxCycles, 2), r.Limiting, r.Exceeded
+		if c.Evaporation > 0 && r.MaxCycles > 1 {
+			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
+			j.MakeupM3PerH = optional(m, func(x float64) float64 { return sig(x, 4) })
+			j.BlowdownM3PerH = optional(bd, func(x float64) float64 { return sig(x, 4) })
+		}
+		j.LimitsAtMaximum = map[string]string{}
+		for _, l := range r.Profile.Limits {
+			j.LimitsAtMaximum[l.Quantity] = fmt.Sprintf("≤ %g (%s)", l.Max, l.Source)
+		}
+		for _, p := range r.Points {
+			pj := CyclesPointJSON{Cycles: dec(p.Cycles, 3)}
+			if p.Err != nil {
+				msg := p.Err.Error()
+				pj.Error = &msg
+			} else {
+				pj.PH = optional(p.Result.PH, func(x float64) float64 { return dec(x, 3) })
+				pj.IonicStrength = optional(p.Result.IonicStrength, func(x float64) float64 { return sig(x, 4) })
+				pj.LSI = optional(p.Indices.LSI, func(x float64) float64 { return dec(x, 2) })
+				pj.SaturationIndex = map[string]float64{}
+				for _, m := range p.Result.Minerals {
+					pj.SaturationIndex[m.Name] = dec(m.SI, 3)
+				}
+			}
+			j.Points = append(j.Points, pj)
+		}
+		j.Warnings = append(j.Warnings, r.Warnings...)
+		js = append(js, j)
+	}
+	switch f {
+	case JSON:
+		return writeJSON(w, struct {
+			Samples []CyclesJSON `json:"samples"`
+			Caution string       `json:"caution"`
+		}{js, Caution})
+	case CSV:
+		cw := csv.NewWriter(w)
+		cw.Write([]string{"name", "profile", "carbonate", "max_cycles", "limiting", "cycles", "ph", "lsi", "si_calcite", "si_gypsum",
+			"si_barite", "si_celestite", "si_silica_amorphous", "error"})
+		for _, j := range js {
+			if j.Error != nil {
+				cw.Write([]string{j.Name, j.Profile, j.Carbonate, "", "", "", "", "", "", "", "", "", "", *j.Error})
+				continue
+			}
+			for _, p := range j.Points {
+				row := []string{j.Name, j.Profile, j.Carbonate, fmtF(j.MaxCycles), j.Limiting, fmtF(p.Cycles), fmtG(p.PH), fmtG(p.LSI)}
+				for _, m := range []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"} {
+					if v, ok := p.SaturationIndex[m]; ok {
+						row = append(row, fmtF(v))
+					} else {
+						row = append(row, "")
+					}
+				}
+				row = append(row, errOf(p.Error))
+				cw.Write(row)
+			}
+		}
+		cw.Flush()
+		return cw.Error()
+	}
+	var b strings.Builder
+	for i, c := range cs {
+		if i > 0 {
+			b.WriteString("\n")
+		}
+		if c.Err != nil {
+			fmt.Fprintf(&b, "%s: not computed: %v\n", c.Name, c.Err)
+			continue
+		}
+		r := c.Result
+		switch {
+		case len(r.Exceeded) > 0:
+			fmt.Fprintf(&b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",
+				c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), c.Carbonate)
+		case r.Limiting == "":
+			fmt.Fprintf(&b, "%s: no %s limit is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
+		default:
+			l, _ := r.Profile.Lookup(r.Limiting)
+			fmt.Fprintf(&b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate); %s reaches its limit of %g there.\n",
+				c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Limiting, l.Max)
+		}
+		if c.Evaporation > 0 && r.MaxCycles > 1 {
+			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
+			fmt.Fprintf(&b, "  At %.3g m³/h evaporation: make-up %.3g m³/h, blowdown %.3g m³/h (drift neglected).\n", c.Evaporation, m, bd)
+		}
+		fmt.Fprintf(&b, "  %7s  %6s  %6s", "cycles", "pH", "LSI")
+		var names []string
+		for _, l := range r.Profile.Limits {
+			if strings.HasPrefix(l.Quantity, "si:") {
+				names = append(names, strings.TrimPrefix(l.Quantity, "si:"))
+			}
+		}
+		for _, n := range names {
+			fmt.Fprintf(&b, "  %*s", max(8, len(n)), n)
+		}
+		b.WriteString("\n")
+		for _, p := range r.Points {
+			if p.Err != nil {
+				fmt.Fprintf(&b, "  %7.2f  %v\n", p.Cycles, p.Err)
+				continue
+			}
+			fmt.Fprintf(&b, "  %7.2f  %6.2f  %+6.2f", p.Cycles, p.Result.PH, p.Indices.LSI)
+			for _, n := range names {
+				if v, ok := p.Result.SI(n); ok {
+					fmt.Fprintf(&b, "  %+*.2f", max(8, len(n)), v)
+				} else {
+					fmt.Fprintf(&b, "  %*s", max(8, len(n)), "–")
+				}
+			}
+			b.WriteString("\n")
+		}
+		for _, wn := range r.Warnings {
+			fmt.Fprintf(&b, "  - %s\n", wn)
+		}
+	}
+	b.WriteString("\n" + wrap(Caution, 78) + "\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}

@@ -1,0 +1,191 @@
+package reports
+
+import (
+	"encoding/csv"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+
+	"scalerisk/saturation"
+)
+
+// SweepOutcome is one sample's sweep.
+type SweepOutcome struct {
+	Name   string
+	X      saturation.Axis
+	Y      *saturation.Axis
+	Points []saturation.Point
+	Err    error
+}
+
+// SweepJSON is one sample of the JSON output of sweep.
+type SweepJSON struct {
+	Name   string           `json:"name"`
+	Vary   []string         `json:"vary"`
+	Points []map[string]any `json:"points"`
+	Error  *string          `json:"error"`
+}
+
+// variableKey is the JSON key of a swept variable.
+func variableKey(v saturation.Variable) string {
+	switch v {
+	case saturation.VaryTemperature:
+		return "temperature_c"
+	case saturation.VaryDose:
+		return "dose_mg_per_l"
+	}
+	return v.String()
+}
+
+// sweepMinerals are the minerals shown in the text table of a sweep.
+var sweepMinerals = []string{"calcite", "gypsum", "anhydrite", "barite", "celestite", "fluorite", "silica_amorphous"}
+
+// WriteSweeps writes sweeps in format f.
+func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
+	var js []SweepJSON
+	for _, s := range ss {
+		j := SweepJSON{Name: s.Name, Vary: []string{s.X.Var.String()}, Points: []map[string]any{}}
+		if s.Y != nil {
+			j.Vary = append(j.Vary, s.Y.Var.String())
+		}
+		if s.Err != nil {
+			msg := s.Err.Error()
+			j.Error = &msg
+			js = append(js, j)
+			continue
+		}
+		for _, p := range s.Points {
+			pt := map[string]any{variableKey(s.X.Var): sig(p.X, 6)}
+			if s.Y != nil {
+				pt[variableKey(s.Y.Var)] = sig(p.Y, 6)
+			}
+			if p.Err != nil {
+				pt["error"] = p.Err.Error()
+			} else {
+				pt["ph"] = dec(p.Result.PH, 3)
+				pt["ionic_strength"] = sig(p.Result.IonicStrength, 4)
+				si := map[string]float64{}
+				for _, m := range p.Result.Minerals {
+					si[m.Name] = dec(m.SI, 3)
+				}
+				pt["saturation_index"] = si
+				ix := p.Indices
+				pt["indices"] = indicesJSON(&ix)
+			}
+			j.Points = append(j.Points, pt)
+		}
+		js = append(js, j)
+	}
+	switch f {
+	case JSON:
+		return writeJSON(w, struct {
+			Samples []SweepJSON `json:"samples"`
+			Caution string      `json:"caution"`
+		}{js, Caution})
+	case CSV:
+		cw := csv.NewWriter(w)
+		header := []string{"name", "x_variable", "x", "y_variable", "y", "ph", "ionic_strength", "lsi", "rsi"}
+		for _, m := range sweepMinerals {
+			header = append(header, "si_"+m)
+		}
+		header = append(header, "error")
+		cw.Write(header)
+		for _, s := range ss {
+			if s.Err != nil {
+				cw.Write(append([]string{s.Name, s.X.Var.String()}, append(make([]string, len(header)-3), s.Err.Error())...))
+				continue
+			}
+			for _, p := range s.Points {
+				yv, yn := "", ""
+				if s.Y != nil {
+					yv, yn = fmtF(sig(p.Y, 6)), s.Y.Var.String()
+				}
+				row := []string{s.Name, s.X.Var.String(), fmtF(sig(p.X, 6)), yn, yv}
+				if p.Err != nil {
+					row = append(row, make([]string, len(header)-len(row)-1)...)
+					row = append(row, p.Err.Error())
+					cw.Write(row)
+					continue
+				}
+				ix := p.Indices
+				row = append(row, fmtF(dec(p.Result.PH, 3)), fmtF(sig(p.Result.IonicStrength, 4)), numOrBlank(ix.LSI, 2), numOrBlank(ix.RSI, 2))
+				for _, m := range sweepMinerals {
+					if v, ok := p.Result.SI(m); ok {
+						row = append(row, fmtF(dec(v, 3)))
+					} else {
+						row = append(row, "")
+					}
+				}
+				row = append(row, "")
+				cw.Write(row)
+			}
+		}
+		cw.Flush()
+		return cw.Error()
+	}
+	var b strings.Builder
+	for i, s := range ss {
+		if i > 0 {
+			b.WriteString("\n")
+		}
+		if s.Err != nil {
+			fmt.Fprintf(&b, "%s: not computed: %v\n", s.Name, s.Err)
+			continue
+		}
+		fmt.Fprintf(&b, "%s: sweep of %s", s.Name, s.X.Var)
+		if s.Y != nil {
+			fmt.Fprintf(&b, " and %s", s.Y.Var)
+		}
+		b.WriteString("\n")
+		var shown []string
+		for _, m := range sweepMinerals {
+			for _, p := range s.Points {
+				if p.Result != nil {
+					if _, ok := p.Result.SI(m); ok {
+						shown = append(shown, m)
+						break
+					}
+				}
+			}
+		}
+		fmt.Fprintf(&b, "  %13s", variableKey(s.X.Var))
+		if s.Y != nil {
+			fmt.Fprintf(&b, "  %13s", variableKey(s.Y.Var))
+		}
+		fmt.Fprintf(&b, "  %6s  %6s", "pH", "LSI")
+		for _, m := range shown {
+			fmt.Fprintf(&b, "  %*s", max(8, len(m)), m)
+		}
+		b.WriteString("\n")
+		for _, p := range s.Points {
+			fmt.Fprintf(&b, "  %13.4g", p.X)
+			if s.Y != nil {
+				fmt.Fprintf(&b, "  %13.4g", p.Y)
+			}
+			if p.Err != nil {
+				fmt.Fprintf(&b, "  %v\n", p.Err)
+				continue
+			}
+			fmt.Fprintf(&b, "  %6.2f  %6s", p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+			for _, m := range shown {
+				if v, ok := p.Result.SI(m); ok {
+					fmt.Fprintf(&b, "  %+*.2f", max(8, len(m)), v)
+				} else {
+					fmt.Fprintf(&b, "  %*s", max(8, len(m)), "–")
+				}
+			}
+			b.WriteString("\n")
+		}
+	}
+	b.WriteString("\n" + wrap(Caution, 78) + "\n")
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+func numOrBlank(v float64, decimals int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return ""
+	}
+	return fmtF(dec(v, decimals))
+}
