@@ -1,11 +1,34 @@
 // Package data holds the embedded tables of scalerisk: analytes and their
-// reported forms, reagents, the thermodynamic table and the demo waters.
-// Every constant in these files carries its source on its row.
+// reported forms, reagents, the thermodynamic table, limit profiles and the
+// demo waters. Every constant in these files carries its source on its row.
 package data
 
-import "embed"
+import (
+	"embed"
+	"encoding/csv"
+	"fmt"
+
+	"github.com/gocarina/gocsv"
+)
 
 // FS holds the embedded tables, read by packages water and saturation.
 //
 //go:embed *.csv
 var FS embed.FS
+
+// Unmarshal reads the embedded table name (lines starting with # are
+// comments) into out, a pointer to a slice of structs with csv tags, as
+// gocsv.UnmarshalCSV does. Errors name the file.
+func Unmarshal(name string, out any) error {
+	f, err := FS.Open(name)
+	if err != nil {
+		return err
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	if err := gocsv.UnmarshalCSV(r, out); err != nil {
+		return fmt.Errorf("data/%s: %w", name, err)
+	}
+	return nil
+}

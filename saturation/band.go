@@ -1,12 +1,8 @@
 package saturation
 
 import (
-	"encoding/csv"
-	"fmt"
 	"math"
 	"sync"
-
-	"github.com/gocarina/gocsv"
 
 	"scalerisk/data"
 )
@@ -56,16 +52,9 @@ type slowRow struct {
 }
 
 var slowTable = sync.OnceValues(func() (map[string]string, error) {
-	f, err := data.FS.Open("slow_minerals.csv")
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
 	var rows []slowRow
-	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
-		return nil, fmt.Errorf("data/slow_minerals.csv: %w", err)
+	if err := data.Unmarshal("slow_minerals.csv", &rows); err != nil {
+		return nil, err
 	}
 	out := map[string]string{}
 	for _, row := range rows {

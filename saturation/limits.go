@@ -1,7 +1,6 @@
 package saturation
 
 import (
-	"encoding/csv"
 	"errors"
 	"fmt"
 	"io"
@@ -69,24 +68,9 @@ func ReadLimits(file string, r io.Reader, m *Model) ([]LimitProfile, error) {
 	if m == nil {
 		m = DefaultModel()
 	}
-	cr := csv.NewReader(r)
-	cr.Comment = '#'
-	cr.FieldsPerRecord = -1
-	header, err := cr.Read()
+	cr, col, err := openTableCSV(file, r, "limits file", []string{"quantity", "max"})
 	if err != nil {
-		if errors.Is(err, io.EOF) {
-			return nil, &water.InputError{File: file, Err: errors.New("empty limits file")}
-		}
-		return nil, &water.InputError{File: file, Line: 1, Err: err}
-	}
-	col := map[string]int{}
-	for i, h := range header {
-		col[strings.ToLower(strings.TrimSpace(strings.TrimPrefix(h, "\ufeff")))] = i
-	}
-	for _, h := range []string{"quantity", "max"} {
-		if _, ok := col[h]; !ok {
-			return nil, &water.InputError{File: file, Line: 1, Err: fmt.Errorf("missing column %q", h)}
-		}
+		return nil, err
 	}
 	var profiles []LimitProfile
 	index := map[string]int{}

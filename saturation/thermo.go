@@ -136,6 +136,37 @@ func (t *Table) Minerals() []Entry {
 	return out
 }
 
+// openTableCSV starts reading a CSV table of the project's own layout
+// (lines starting with # are comments): it reads the header, maps each
+// column name (case and a byte-order mark aside) to its index, and checks
+// that the required columns are there. Errors are *water.InputError.
+func openTableCSV(file string, r io.Reader, what string, required []string) (*csv.Reader, map[string]int, error) {
+	cr := csv.NewReader(r)
+	cr.Comment = '#'
+	cr.FieldsPerRecord = -1
+	header, err := cr.Read()
+	if err != nil {
+		if errors.Is(err, io.EOF) {
+			return nil, nil, &water.InputError{File: file, Err: fmt.Errorf("empty %s", what)}
+		}
+		return nil, nil, &water.InputError{File: file, Line: 1, Err: err}
+	}
+	col := map[string]int{}
+	for i, h := range header {
+		key := strings.ToLower(strings.TrimSpace(strings.TrimPrefix(h, "\ufeff")))
+		if _, dup := col[key]; dup {
+			return nil, nil, &water.InputError{File: file, Line: 1, Column: i + 1, Header: h, Err: errors.New("duplicate column")}
+		}
+		col[key] = i
+	}
+	for _, h := range required {
+		if _, ok := col[h]; !ok {
+			return nil, nil, &water.InputError{File: file, Line: 1, Err: fmt.Errorf("missing column %q", h)}
+		}
+	}
+	return cr, col, nil
+}
+
 var tableHeader = []string{"name", "phase", "formula", "equation", "log_k_25", "delta_h_kj",
 	"a1", "a2", "a3", "a4", "a5", "a6", "t_min_c", "t_max_c", "ion_size", "b_tj", "source"}
 
@@ -147,25 +178,11 @@ var tableHeader = []string{"name", "phase", "formula", "equation", "log_k_25", "
 // otherwise only masters, H2O and entries defined earlier in the same table
 // (or in base, when base is not nil).
 func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
-	cr := csv.NewReader(r)
-	cr.Comment = '#'
-	cr.FieldsPerRecord = -1
-	header, err := cr.Read()
+	cr, col, err := openTableCSV(file, r, "thermodynamic table", tableHeader)
 	if err != nil {
-		if errors.Is(err, io.EOF) {
-			return nil, &water.InputError{File: file, Err: errors.New("empty thermodynamic table")}
-		}
-		return nil, &water.InputError{File: file, Line: 1, Err: err}
+		return nil, err
 	}
-	col := map[string]int{}
-	for i, h := range header {
-		col[strings.TrimSpace(strings.TrimPrefix(h, "\ufeff"))] = i
-	}
-	for _, h := range tableHeader {
-		if _, ok := col[h]; !ok {
-			return nil, &water.InputError{File: file, Line: 1, Err: fmt.Errorf("missing column %q", h)}
-		}
-	}
+	ncol := len(col) // openTableCSV refuses duplicate names
 	t := &Table{index: map[string]int{}}
 	if base != nil {
 		t.entries = append(t.entries, base.entries...)
@@ -182,9 +199,9 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 		if err != nil {
 			return nil, &water.InputError{File: file, Line: line, Err: err}
 		}
-		if len(rec) != len(header) {
+		if len(rec) != ncol {
 			return nil, &water.InputError{File: file, Line: line,
-				Err: fmt.Errorf("%d fields, want %d", len(rec), len(header))}
+				Err: fmt.Errorf("%d fields, want %d", len(rec), ncol)}
 		}
 		e, err := parseEntry(rec, col, file, line)
 		if err != nil {

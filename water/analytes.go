@@ -1,12 +1,9 @@
 package water
 
 import (
-	"encoding/csv"
 	"fmt"
 	"strings"
 	"sync"
-
-	"github.com/gocarina/gocsv"
 
 	"scalerisk/data"
 )
@@ -45,16 +42,9 @@ type AnalyteTable struct {
 }
 
 var defaultAnalytes = sync.OnceValues(func() (*AnalyteTable, error) {
-	f, err := data.FS.Open("analytes.csv")
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
 	var rows []analyteRow
-	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
-		return nil, fmt.Errorf("data/analytes.csv: %w", err)
+	if err := data.Unmarshal("analytes.csv", &rows); err != nil {
+		return nil, err
 	}
 	t := &AnalyteTable{byName: map[string]int{}}
 	for _, row := range rows {

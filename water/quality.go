@@ -1,13 +1,10 @@
 package water
 
 import (
-	"encoding/csv"
 	"fmt"
 	"math"
 	"strings"
 	"sync"
-
-	"github.com/gocarina/gocsv"
 
 	"scalerisk/data"
 )
@@ -488,16 +485,9 @@ type conductivityRow struct {
 }
 
 var defaultConductivities = sync.OnceValues(func() (*conductivityTable, error) {
-	f, err := data.FS.Open("conductivity.csv")
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
 	var rows []conductivityRow
-	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
-		return nil, fmt.Errorf("data/conductivity.csv: %w", err)
+	if err := data.Unmarshal("conductivity.csv", &rows); err != nil {
+		return nil, err
 	}
 	t := &conductivityTable{}
 	var seen [NumComponents]bool

@@ -1,12 +1,9 @@
 package water
 
 import (
-	"encoding/csv"
 	"fmt"
 	"strings"
 	"sync"
-
-	"github.com/gocarina/gocsv"
 
 	"scalerisk/data"
 )
@@ -58,16 +55,9 @@ type reagentRow struct {
 }
 
 var defaultReagents = sync.OnceValues(func() ([]Reagent, error) {
-	f, err := data.FS.Open("reagents.csv")
-	if err != nil {
-		return nil, err
-	}
-	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
 	var rows []reagentRow
-	if err := gocsv.UnmarshalCSV(r, &rows); err != nil {
-		return nil, fmt.Errorf("data/reagents.csv: %w", err)
+	if err := data.Unmarshal("reagents.csv", &rows); err != nil {
+		return nil, err
 	}
 	var list []Reagent
 	seen := map[string]bool{}

@@ -1,7 +1,6 @@
 package main
 
 import (
-	"errors"
 	"fmt"
 	"io"
 
@@ -32,12 +31,11 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			inputs := c.inputs(args)
-			if len(inputs) == 0 {
-				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
-			}
 			stderr := cmd.ErrOrStderr()
-			files, problems := readAll(inputs, stdin, ropt, stderr)
+			files, problems, err := c.read(cmd, args, stdin, ropt)
+			if err != nil {
+				return err
+			}
 			var all []saturation.Assessment
 			failures := 0
 			for _, f := range files {

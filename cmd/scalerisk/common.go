@@ -84,6 +84,17 @@ func (c *commonFlags) inputs(args []string) []input {
 	return in
 }
 
+// read reads the inputs named by args (and the demo with --demo); no input
+// at all is a bad-input error.
+func (c *commonFlags) read(cmd *cobra.Command, args []string, stdin io.Reader, ropt water.ReadOptions) ([]fileRecords, int, error) {
+	inputs := c.inputs(args)
+	if len(inputs) == 0 {
+		return nil, 0, badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+	}
+	files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
+	return files, problems, nil
+}
+
 // fileRecords is what one input held.
 type fileRecords struct {
 	name    string

@@ -69,11 +69,10 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if strength != 0 && !(strength > 0 && strength <= 100) {
 				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
 			}
-			inputs := c.inputs(args)
-			if len(inputs) == 0 {
-				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			files, problems, err := c.read(cmd, args, stdin, ropt)
+			if err != nil {
+				return err
 			}
-			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
 			var out []reports.DoseOutcome
 			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
@@ -140,11 +139,10 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if !(step > 0) || !(evaporation >= 0) {
 				return badInput(errors.New("--step must be positive and --evaporation 0 or more"))
 			}
-			inputs := c.inputs(args)
-			if len(inputs) == 0 {
-				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			files, problems, err := c.read(cmd, args, stdin, ropt)
+			if err != nil {
+				return err
 			}
-			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
 			var out []reports.CyclesOutcome
 			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
@@ -236,11 +234,10 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if len(axes) == 2 {
 				y = &axes[1]
 			}
-			inputs := c.inputs(args)
-			if len(inputs) == 0 {
-				return badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+			files, problems, err := c.read(cmd, args, stdin, ropt)
+			if err != nil {
+				return err
 			}
-			files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
 			var out []reports.SweepOutcome
 			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
