@@ -296,7 +296,7 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 		if s.Error != nil {
 			errText = *s.Error
 		}
-		row = append(row, errText, strings.Join(s.Warnings, "; "))
+		row = append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "))
 		if err := cw.Write(row); err != nil {
 			return err
 		}

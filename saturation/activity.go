@@ -17,7 +17,7 @@ const (
 	Davies                       // Davies (1962), 0.3 I
 	TruesdellJones               // Truesdell & Jones (1974) extended Debye–Hückel with ion-specific b
 	BDot                         // Helgeson (1969) B-dot
-	Pitzer                       // Pitzer specific-interaction model for brines (not yet available)
+	Pitzer                       // Pitzer specific-interaction model for brines, HMW84 form (pitzer.go)
 )
 
 var modelNames = [...]string{"auto", "davies", "truesdell-jones", "bdot", "pitzer"}
@@ -48,21 +48,36 @@ func ParseActivityModel(s string) (ActivityModel, error) {
 // References: Davies: about 0.5 mol/kg at most (Stumm & Morgan 1996, from
 // memory); Truesdell–Jones: to about 2 mol/kg in NaCl-dominated waters
 // (Truesdell & Jones 1974, from memory); B-dot: to about 1 mol/kg
-// (Helgeson 1969, from memory).
-var modelLimit = map[ActivityModel]float64{Davies: 0.5, TruesdellJones: 2, BDot: 1}
+// (Helgeson 1969, from memory); Pitzer (the HMW84 set of data/pitzer.csv):
+// checked against single-salt tables to 6 mol/kg (pitzer_test.go), so up
+// to NaCl saturation (6.1 mol/kg) without a warning.
+var modelLimit = map[ActivityModel]float64{Davies: 0.5, TruesdellJones: 2, BDot: 1, Pitzer: 6.2}
 
 // daviesAutoLimit is the ionic strength, mol/kg, up to which Auto chooses
 // Davies (the common practice for fresh and cooling waters, as in Standard
 // Methods 2330); above it Auto chooses Truesdell–Jones.
 const daviesAutoLimit = 0.1
 
+// pitzerAutoLimit is the ionic strength, mol/kg, above which Auto chooses
+// the Pitzer model set (decided on the Truesdell–Jones solution). Up to
+// about 1 mol/kg the ion-association set is as good as the data behind it
+// and its ion pairs are fitted there; above it its sulfate and carbonate
+// activities and its mixing behaviour drift (thermo.md §8: ion association
+// for I ≲ 0.5–1), while the Pitzer set is fitted to concentrated solutions.
+// Seawater (I ≈ 0.7) therefore stays with the ion-association set; RO
+// concentrate of seawater and oilfield brines go to Pitzer.
+const pitzerAutoLimit = 1.0
+
 // ChooseModel returns the model Auto selects for a water of ionic strength
-// I mol/kg: Davies up to 0.1, Truesdell–Jones above.
+// I mol/kg: Davies up to 0.1, Truesdell–Jones up to 1, Pitzer above.
 func ChooseModel(I float64) ActivityModel {
-	if I <= daviesAutoLimit {
+	switch {
+	case I <= daviesAutoLimit:
 		return Davies
+	case I <= pitzerAutoLimit:
+		return TruesdellJones
 	}
-	return TruesdellJones
+	return Pitzer
 }
 
 // Permittivity returns the relative permittivity of water at 1 atm and

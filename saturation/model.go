@@ -82,6 +82,9 @@ type Model struct {
 	speciesIdx map[string]int
 	mineralIdx map[string]int
 	gasIdx     map[string]int
+	// pitzer builds, on first use, the Pitzer model set derived from this
+	// model's table (pitzer.go).
+	pitzer func() (*pitzerSet, error)
 }
 
 // NewModel reduces table t to the master species of the water components.
@@ -251,6 +254,7 @@ func NewModel(t *Table) (*Model, error) {
 		}
 		m.species[i].class = k
 	}
+	m.pitzer = sync.OnceValues(func() (*pitzerSet, error) { return newPitzerSet(m) })
 	return m, nil
 }
 

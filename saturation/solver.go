@@ -102,6 +102,10 @@ type Solver struct {
 	fixedScale float64
 
 	iterations int
+
+	// pz holds the Pitzer coefficients when the solver works on the Pitzer
+	// model set (pitzer.go); nil for the ion-association set.
+	pz *pitzerState
 }
 
 // maxIterations bounds the Newton–Raphson iterations of one solve.
@@ -182,6 +186,9 @@ var ErrNoConvergence = errors.New("speciation did not converge")
 func (s *Solver) solve(p problem, warm bool) error {
 	s.p = p
 	s.setTemperature(p.t)
+	if s.pz != nil {
+		s.pz.setTemperature(p.t) // Pitzer model set
+	}
 	m := s.m
 	cj := m.compMaster[water.C]
 	present := func(j int) bool {
@@ -364,6 +371,9 @@ func (s *Solver) initialGuess() {
 		s.lng[i], s.dlng[i] = 0, 0
 	}
 	s.lnaw = 0
+	if s.pz != nil {
+		s.pz.reset() // Pitzer: start from the Debye–Hückel term
+	}
 	var I2 float64
 	for _, j := range s.vars {
 		if j != 0 {
@@ -407,6 +417,9 @@ func (s *Solver) initialGuess() {
 			}
 		}
 		s.lnI = math.Log(math.Max(I2/2, 1e-12))
+		if s.pitzerActive() {
+			s.pitzerRefresh() // Pitzer: coefficients of the improved start
+		}
 		s.updateWater()
 	}
 }
@@ -532,6 +545,10 @@ func (s *Solver) updateWater() {
 			sum += s.ms[i]
 		}
 	}
+	if s.pitzerActive() {
+		s.lnaw = -s.pz.phi * waterMolarMass * sum // Pitzer: ln a_w = −φ·M_w·Σm
+		return
+	}
 	s.lnaw = math.Log(waterActivity(sum))
 }
 
@@ -548,8 +565,14 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	I := math.Exp(s.lnI)
 	sqrtI := math.Sqrt(I)
 	clg, cdlg := s.clg, s.cdlg
+	classModel := p.model
+	pitzer := s.pitzerActive()
+	if pitzer {
+		// Species outside the Pitzer parameter set keep ion-association γ.
+		classModel = TruesdellJones
+	}
 	for k := range m.classes {
-		lg, dlg := logGammaDeriv(p.model, &m.classes[k], s.dh, I, sqrtI)
+		lg, dlg := logGammaDeriv(classModel, &m.classes[k], s.dh, I, sqrtI)
 		clg[k], cdlg[k] = math.Ln10*lg, math.Ln10*dlg
 	}
 	for i := range m.species {
@@ -557,6 +580,9 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 			c := m.species[i].class
 			s.lng[i], s.dlng[i] = clg[c], cdlg[c]
 		}
+	}
+	if pitzer {
+		s.pitzerApply(I)
 	}
 	hFixed := p.hRow == rowFixed
 	if hFixed {
@@ -696,9 +722,13 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	// Ionic strength: ln(½Σz²m) − ln I = 0.
 	R[cI] = math.Log(I2/2) - s.lnI
 	s.scale[cI] = 1
-	// Water: ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity).
+	// Water: ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity); under
+	// Pitzer ln a_w + φ·M_w·Σm = 0 with φ of the last refresh.
 	awCalc := waterActivity(S)
 	R[cW] = s.lnaw - math.Log(awCalc)
+	if pitzer {
+		R[cW] = s.lnaw + s.pz.phi*waterMolarMass*S
+	}
 	s.scale[cW] = 1
 	if jac {
 		row := J[cI*n : (cI+1)*n]
@@ -710,6 +740,9 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		c := 0.0
 		if awCalc > waterActivityFloor {
 			c = waterActivitySlope / awCalc
+		}
+		if pitzer {
+			c = s.pz.phi * waterMolarMass
 		}
 		for l := 0; l < n; l++ {
 			row[l] = c * dS[l]
@@ -742,14 +775,24 @@ func (s *Solver) newton() error {
 	// residual and a back-substitution instead of a Jacobian and an LU.
 	factored, prevMax := false, math.Inf(1)
 	a := blas64.General{Rows: n, Cols: n, Stride: n, Data: s.J[:n*n]}
+	// Under Pitzer the activity coefficients are refreshed from the
+	// molalities at the top of every iteration and held during the step;
+	// the solve has converged when the residuals and the refresh both are.
+	pitzer := s.pitzerActive()
 	for it := 0; it < maxIterations; it++ {
 		s.iterations = it + 1
+		var lagMove float64
+		if pitzer {
+			if lagMove = s.pitzerRefresh(); math.IsNaN(lagMove) {
+				return fmt.Errorf("%w: Pitzer activity coefficients became NaN", ErrNoConvergence)
+			}
+		}
 		chord := factored && prevMax < chordThreshold
 		maxAbs, sumSq := s.evaluate(!chord)
 		if math.IsNaN(sumSq) || math.IsInf(sumSq, 0) {
 			return fmt.Errorf("%w: residual became NaN", ErrNoConvergence)
 		}
-		if maxAbs < tolerance {
+		if maxAbs < tolerance && lagMove < pitzerTolerance {
 			return nil
 		}
 		if chord && maxAbs > 0.1*prevMax {

@@ -132,6 +132,8 @@ func (r *Result) Molality(name string) float64 {
 type Speciator struct {
 	model  *Model
 	solver *Solver
+	// pitzer is the solver of the Pitzer model set, made on first use.
+	pitzer *Solver
 	// last carbon fix (step 1 of Speciate), reused while the same water is
 	// evaluated at other temperatures or in other modes.
 	fix       carbonFix
@@ -203,6 +205,7 @@ const (
 func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	if opt.Model != nil && opt.Model != sp.model {
 		sp.model, sp.solver, sp.fixCached = opt.Model, NewSolver(opt.Model), false
+		sp.pitzer = nil
 	}
 	t := a.Temperature
 	if opt.AtTemperature {
@@ -210,9 +213,6 @@ func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	}
 	if math.IsNaN(t) || t < minTemperature || t > maxTemperature {
 		return nil, fmt.Errorf("%s: temperature %.4g °C is outside 0–%d °C", a.Name, t, maxTemperature)
-	}
-	if opt.Activity == Pitzer {
-		return nil, fmt.Errorf("%s: the Pitzer activity model is not available yet; use truesdell-jones", a.Name)
 	}
 	var warnings []string
 	if t > warnTemperature {
@@ -223,6 +223,19 @@ func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 		// Davies is for fresh waters; beyond 0.1 mol/kg (or where its
 		// −0.3·I term drives the solution away) Truesdell–Jones takes over.
 		res, err = sp.speciateModel(a, opt, t, TruesdellJones)
+	}
+	if opt.Activity == Auto {
+		// Brines: beyond 1 mol/kg (on the Truesdell–Jones solution) the
+		// Pitzer model set takes over (see pitzerAutoLimit).
+		switch {
+		case err == nil && res.IonicStrength > pitzerAutoLimit:
+			res, err = sp.speciateModel(a, opt, t, Pitzer)
+		case err != nil:
+			// Truesdell–Jones failed: a brine may still solve under Pitzer.
+			if pr, perr := sp.speciateModel(a, opt, t, Pitzer); perr == nil && pr.IonicStrength > pitzerAutoLimit {
+				res, err = pr, nil
+			}
+		}
 	}
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", a.Name, err)
@@ -235,8 +248,11 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	if model == Auto {
 		model = Davies
 	}
-	m := sp.model
-	s := sp.solver
+	s, err := sp.engine(model)
+	if err != nil {
+		return nil, err
+	}
+	m := s.m
 	totals := make([]float64, len(m.masters))
 	for c := range water.NumComponents {
 		if c == water.C {
@@ -284,7 +300,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 					q := p
 					q.cRow = rowAbsent
 					if s.solve(q, false) == nil {
-						if _, other, _ := sp.carbonState(); other >= alk {
+						if _, other, _ := carbonState(s); other >= alk {
 							return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: the non-carbonate species alone give %.4g meq/kg",
 								a.PH, 1000*alk, 1000*other)
 						}
@@ -292,7 +308,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 				}
 				return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
 			}
-			c1, alk1, co2 := sp.carbonState()
+			c1, alk1, co2 := carbonState(s)
 			if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
 				warnings = append(warnings, fmt.Sprintf(
 					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
@@ -324,7 +340,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	case Closed:
 		if fixed && t == a.PHTemperature {
 			// The solver still holds the solution at the measured pH.
-			r := sp.collect(a, fixedProblem)
+			r := collect(s, a, fixedProblem)
 			r.Warnings = append(warnings, r.Warnings...)
 			return sp.finish(r, a, t), nil
 		}
@@ -359,15 +375,32 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	if err := s.solve(p, true); err != nil {
 		return nil, err
 	}
-	r := sp.collect(a, p)
+	r := collect(s, a, p)
 	r.Warnings = append(warnings, r.Warnings...)
 	return sp.finish(r, a, t), nil
 }
 
+// engine returns the solver for activity model model: the Pitzer model
+// set's for Pitzer (built on first use), the ion-association set's
+// otherwise.
+func (sp *Speciator) engine(model ActivityModel) (*Solver, error) {
+	if model != Pitzer {
+		return sp.solver, nil
+	}
+	if sp.pitzer == nil {
+		set, err := sp.model.pitzerSet()
+		if err != nil {
+			return nil, err
+		}
+		sp.pitzer = newPitzerSolver(set)
+	}
+	return sp.pitzer, nil
+}
+
 // carbonState returns total inorganic carbon (mol/kg), alkalinity (eq/kg)
-// and the molality of CO2[0] of the solver's current solution.
-func (sp *Speciator) carbonState() (carbon, alk, co2 float64) {
-	s, m := sp.solver, sp.model
+// and the molality of CO2[0] of the current solution of solver s.
+func carbonState(s *Solver) (carbon, alk, co2 float64) {
+	m := s.m
 	cj := m.compMaster[water.C]
 	co2i, hasCO2 := m.speciesIdx["CO2[0]"]
 	for i := range m.species {
@@ -388,9 +421,9 @@ func (sp *Speciator) carbonState() (carbon, alk, co2 float64) {
 	return carbon, alk, co2
 }
 
-// collect turns the solver state into a Result.
-func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
-	s, m := sp.solver, sp.model
+// collect turns the state of solver s into a Result.
+func collect(s *Solver, a water.Analysis, p problem) *Result {
+	m := s.m
 	r := &Result{Name: a.Name, Temperature: p.t, IonicStrength: math.Exp(s.lnI), Activity: p.model,
 		WaterActivity: math.Exp(s.lnaw), Iterations: s.iterations, LogPCO2: math.NaN()}
 	r.PH = -(s.lnm[0] + s.lng[0]) / math.Ln10
@@ -488,6 +521,9 @@ func (sp *Speciator) collect(a water.Analysis, p problem) *Result {
 		r.Warnings = append(r.Warnings, fmt.Sprintf("log K known at 25 °C only, used unchanged at %.4g °C, for significant species: %s",
 			p.t, strings.Join(constant, ", ")))
 	}
+	if s.pitzerActive() {
+		r.Warnings = append(r.Warnings, s.pitzerWarnings(p.t)...)
+	}
 	return r
 }
 
@@ -515,9 +551,13 @@ func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
 	r.Analysis = b
 	r.Temperature = t
 	if lim, ok := modelLimit[r.Activity]; ok && r.IonicStrength > lim {
+		advice := "a Pitzer model suits brines"
+		if r.Activity == Pitzer {
+			advice = "the parameter set is checked to about 6 mol/kg"
+		}
 		r.Warnings = append(r.Warnings, fmt.Sprintf(
-			"ionic strength %.3g mol/kg is beyond the %s model's range (about %g mol/kg): activity coefficients are uncertain; a Pitzer model suits brines",
-			r.IonicStrength, r.Activity, lim))
+			"ionic strength %.3g mol/kg is beyond the %s model's range (about %g mol/kg): activity coefficients are uncertain; %s",
+			r.IonicStrength, r.Activity, lim, advice))
 	}
 	return r
 }

@@ -431,24 +431,24 @@ func TestActivityModel(t *testing.T) {
 		}
 	}
 
-	// Pitzer is accepted by the flag but not implemented: every sample
-	// comes out as an error row and the exit code is 1 (a computation that
-	// could not be done, not bad input).
-	r := mustRun(t, exitInternal, "", "assess", "--demo", "--format", "json", "--activity", "pitzer")
-	doc = decodeAssess(t, r.stdout)
+	// Pitzer runs on request for every sample and is reported.
+	doc = decodeAssess(t, mustRun(t, exitOK, "", "assess", "--demo", "--format", "json", "--activity", "pitzer").stdout)
 	if len(doc.Samples) != len(demoSamples) {
-		t.Fatalf("pitzer: %d samples, want %d error rows", len(doc.Samples), len(demoSamples))
+		t.Fatalf("pitzer: %d samples, want %d", len(doc.Samples), len(demoSamples))
 	}
 	for _, s := range doc.Samples {
-		if s.Error == nil || !strings.Contains(*s.Error, "Pitzer") {
-			t.Errorf("pitzer: %s: error = %v, want a message naming Pitzer", s.Name, s.Error)
-		}
-		if s.SaturationIndex != nil {
-			t.Errorf("pitzer: %s: saturation indices written for a sample not computed", s.Name)
+		if s.Error != nil || s.ActivityModel != "pitzer" {
+			t.Errorf("pitzer: %s: activity_model = %q, error %v; want pitzer and no error", s.Name, s.ActivityModel, s.Error)
 		}
 	}
-	if strings.Count(r.stderr, "Pitzer") != len(demoSamples) || !strings.Contains(r.stderr, "demo.csv:2:") {
-		t.Errorf("pitzer: stderr = %q, want one located line per sample", r.stderr)
+
+	// A brine (an invented produced water, I ≈ 2.5 mol/kg) goes to Pitzer
+	// automatically.
+	brine := "name,temperature [C],pH,pH_temperature [C],Ca [mg/L],Mg [mg/L],Na [mg/L],K [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3]\n" +
+		"Invented produced water,60,6.8,25,6000,800,42000,400,80000,300,250\n"
+	doc = decodeAssess(t, runCLI(t, brine, "assess", "-", "--format", "json").stdout)
+	if len(doc.Samples) != 1 || doc.Samples[0].ActivityModel != "pitzer" {
+		t.Errorf("brine: samples %+v, want one with activity_model pitzer", doc.Samples)
 	}
 }
 
