@@ -3,6 +3,7 @@ module scalerisk
 go 1.26
 
 require (
+	github.com/go-echarts/go-echarts/v2 v2.6.7
 	github.com/gocarina/gocsv v0.0.0-20240520201108-78e41c74b4b1
 	github.com/spf13/cobra v1.10.2
 	gonum.org/v1/gonum v0.17.0

@@ -42,7 +42,7 @@ func newRootCmd(stdin io.Reader) *cobra.Command {
 		SilenceUsage:  true,
 		SilenceErrors: true,
 	}
-	root.AddCommand(newAssessCmd(stdin), newMineralsCmd())
+	root.AddCommand(newAssessCmd(stdin), newMineralsCmd(), newReportCmd(stdin))
 	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin))
 	return root
 }

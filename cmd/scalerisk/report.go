@@ -1,0 +1,193 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"time"
+
+	"github.com/spf13/cobra"
+
+	"scalerisk/reports"
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// reportOptions holds the flags of report beyond the shared ones.
+type reportOptions struct {
+	common          commonFlags
+	output          string
+	title           string
+	client          string
+	date            string
+	skinTemperature float64
+	maxCycles       float64
+	reagent         string
+	strength        float64
+	maxDose         float64
+	target          string
+	limits          string
+	carbonate       string
+	detail          int
+}
+
+func newReportCmd(stdin io.Reader) *cobra.Command {
+	o := &reportOptions{}
+	cmd := &cobra.Command{
+		Use:   "report [FILE...|-] [--demo] -o report.html",
+		Short: "Write a self-contained HTML report with charts for a client",
+		Long: "report reads laboratory analyses (wide or long CSV; - for standard input; --demo for the\n" +
+			"embedded demo waters), assesses every sample as assess does, and writes one HTML file that\n" +
+			"opens in any browser with no network: a summary, and for each sample its findings, the\n" +
+			"saturation indices with plain-word risk bands, the classic indices, the scale that could\n" +
+			"form, the dose of --reagent to --target and the highest cycles under --limits, charts of\n" +
+			"the saturation index against temperature (sample to --skin-temperature), cycles of\n" +
+			"concentration and reagent dose, a temperature × cycles map of the limiting mineral and\n" +
+			"the composition, the analysis as entered and as used, the data quality, the methods and\n" +
+			"data sources, and the cautions. Waters sampled on two or more dates get their indices\n" +
+			"over time.\n\n" +
+			"The file is written whole or not at all (a temporary file, then a rename); -o - writes to\n" +
+			"standard output.\n\n" +
+			"Exit status: 0 all samples computed; 2 bad input (the report is still written with the\n" +
+			"good samples and lists the bad ones); 1 a sample could not be computed or writing failed.\n\n" +
+			reports.Caution,
+		Args: cobra.ArbitraryArgs,
+		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },
+	}
+	o.common.register(cmd)
+	// The report is HTML; the shared --format flag does not apply.
+	if err := cmd.Flags().MarkHidden("format"); err != nil {
+		panic(err)
+	}
+	f := cmd.Flags()
+	f.StringVarP(&o.output, "output", "o", "report.html", "the HTML file to write (- for standard output)")
+	f.StringVar(&o.title, "title", "", "title of the report (default \""+reports.DefaultReportTitle+"\")")
+	f.StringVar(&o.client, "client", "", "who the report is prepared for, shown under the title")
+	f.StringVar(&o.date, "date", "", "date shown on the report (default today; --date none leaves it out)")
+	f.Float64Var(&o.skinTemperature, "skin-temperature", reports.DefaultSkinTemperature,
+		"end of the temperature axis: the heat-exchanger tube-wall temperature, °C")
+	f.Float64Var(&o.maxCycles, "max-cycles", reports.DefaultMaxCycles, "end of the cycles axis and of the highest-cycles search")
+	f.StringVar(&o.reagent, "reagent", reports.DefaultReagent, "reagent of the dose chart and the dose to target, by formula: "+reagentNames())
+	f.Float64Var(&o.strength, "strength", 0, "strength of the reagent product, percent (default: the reagent table's usual strength)")
+	f.Float64Var(&o.maxDose, "max-dose", 0, "end of the dose axis, mg/L of product (default: 80 % of the alkalinity neutralised)")
+	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
+	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
+	f.StringVar(&o.carbonate, "carbonate", "closed", "carbonate rule of the highest-cycles search: closed, air, ph=VALUE, natural or relation=A,B")
+	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts (0: all); the others are in the summary")
+	return cmd
+}
+
+func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) error {
+	if cmd.Flags().Changed("format") {
+		return badInput(errors.New("report writes HTML: --format does not apply"))
+	}
+	_, opt, ropt, err := o.common.setup(cmd)
+	if err != nil {
+		return err
+	}
+	if o.detail < 0 {
+		return badInput(fmt.Errorf("--detail %d is negative", o.detail))
+	}
+	if o.output == "" {
+		return badInput(errors.New("no output file: give -o report.html (or -o - for standard output)"))
+	}
+	hopt := reports.HTMLOptions{Speciation: opt, Detection: ropt.Detection, SkinTemperature: o.skinTemperature,
+		MaxCycles: o.maxCycles, Reagent: o.reagent, Strength: o.strength, MaxDose: o.maxDose, Detail: o.detail}
+	if err := hopt.Check(); err != nil {
+		return badInput(err)
+	}
+	reagent, err := water.LookupReagent(o.reagent)
+	if err != nil {
+		return badInput(err)
+	}
+	var target *saturation.Target
+	if o.target != "none" {
+		t, err := saturation.ParseTarget(o.target, opt.Model)
+		if err != nil {
+			return badInput(err)
+		}
+		target = &t
+	}
+	var profile *saturation.LimitProfile
+	rule, err := saturation.ParseCarbonateRule(o.carbonate)
+	if err != nil {
+		return badInput(err)
+	}
+	if o.limits != "none" {
+		p, err := loadProfile(o.limits, opt.Model)
+		if err != nil {
+			return err
+		}
+		profile = &p
+	}
+
+	files, problems, err := o.common.read(cmd, args, stdin, ropt)
+	if err != nil {
+		return err
+	}
+	stderr := cmd.ErrOrStderr()
+	rep := reports.Report{Title: o.title, Client: o.client, Options: hopt}
+	switch o.date {
+	case "":
+		rep.Date = time.Now().Format("2 January 2006")
+	case "none":
+	default:
+		rep.Date = o.date
+	}
+	failures := 0
+	for _, f := range files {
+		rep.Inputs = append(rep.Inputs, f.name)
+		for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
+			s := reports.ReportSample{Assessment: a}
+			if a.Err != nil && !a.BadInput {
+				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
+				failures++
+			}
+			if a.Result != nil && (target != nil || profile != nil) {
+				s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
+			}
+			rep.Samples = append(rep.Samples, s)
+		}
+	}
+	if len(rep.Samples) == 0 {
+		return &exitError{code: exitBadInput, err: errors.New("no samples to report"), quiet: problems > 0}
+	}
+	if o.output == "-" {
+		err = reports.WriteHTML(cmd.OutOrStdout(), rep)
+	} else {
+		err = reports.WriteHTMLFile(o.output, rep)
+	}
+	if err != nil {
+		return &exitError{code: exitInternal, err: fmt.Errorf("writing the report: %w", err)}
+	}
+	if o.output != "-" {
+		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, len(rep.Samples))
+	}
+	return finish(problems, failures)
+}
+
+// treatmentOf runs the treatment searches of one sample: the dose of
+// reagent to target and the highest cycles under profile. A search that
+// fails leaves its part out and says why in the notes.
+func treatmentOf(a saturation.Assessment, reagent water.Reagent, strength float64, target *saturation.Target,
+	profile *saturation.LimitProfile, rule saturation.CarbonateRule, ruleName string, maxCycles float64,
+	opt saturation.Options) *reports.Treatment {
+	t := &reports.Treatment{}
+	if target != nil {
+		d, err := saturation.DoseToTarget(a.Input, reagent, strength, *target, opt)
+		if err != nil {
+			t.Notes = append(t.Notes, fmt.Sprintf("The dose to %s could not be computed: %v", target, err))
+		} else {
+			t.Dose = d
+		}
+	}
+	if profile != nil {
+		c, err := saturation.MaxCycles(a.Input, *profile, rule, maxCycles, 0, opt)
+		if err != nil {
+			t.Notes = append(t.Notes, fmt.Sprintf("The highest cycles could not be computed: %v", err))
+		} else {
+			t.Cycles, t.CyclesRule = c, ruleName
+		}
+	}
+	return t
+}

@@ -1,0 +1,139 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"scalerisk/reports"
+)
+
+func TestReportDemo(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "report.html")
+	r := mustRun(t, exitOK, "", "report", "--demo", "-o", out, "--date", "9 March 2026", "--client", "Kestrel Fen Energy Centre")
+	if !strings.Contains(r.stdout, "wrote "+out+": 3 samples") {
+		t.Errorf("stdout = %q, want the file and the sample count", r.stdout)
+	}
+	if r.stderr != "" {
+		t.Errorf("stderr = %q, want nothing for the demo", r.stderr)
+	}
+	page, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := string(page)
+	for _, want := range []string{"<!DOCTYPE html>", "9 March 2026", "Kestrel Fen Energy Centre", demoSamples[0],
+		demoSamples[1], demoSamples[2], "Dose to target", "LSI +0.50", "Highest cycles of concentration</h4>",
+		"Classic indices at", "Scale that could form", `data-chart="s2-dose"`, "</html>"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("report lacks %q", want)
+		}
+	}
+	if !strings.Contains(oneLine(s), oneLine(reports.Caution)) {
+		t.Error("report lacks the caution")
+	}
+}
+
+func TestReportStdoutAndOptions(t *testing.T) {
+	r := mustRun(t, exitOK, "", "report", "--demo", "-o", "-", "--date", "none", "--target", "none", "--limits", "none",
+		"--detail", "1", "--skin-temperature", "45", "--max-cycles", "5", "--reagent", "hcl", "--max-dose", "80")
+	s := r.stdout
+	if !strings.HasPrefix(s, "<!DOCTYPE html>") {
+		t.Fatalf("-o - did not write the page to standard output: %.80q", s)
+	}
+	for _, absent := range []string{"Dose to target", "Highest cycles of concentration</h4>", `data-chart="s2-`, "<dt>Date</dt>"} {
+		if strings.Contains(s, absent) {
+			t.Errorf("page holds %q though the flags left it out", absent)
+		}
+	}
+	for _, want := range []string{"hydrochloric acid", "to 45.0 °C", "1 to 5.0 times", "from 0 to 80 mg/L"} {
+		if !strings.Contains(s, want) {
+			t.Errorf("page lacks %q", want)
+		}
+	}
+}
+
+// TestReportEscapes: a sample named like a script comes out as text.
+func TestReportEscapes(t *testing.T) {
+	dir := t.TempDir()
+	in := filepath.Join(dir, "lab.csv")
+	const evil = "<script>alert(1)</script>"
+	lab := "name,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3]\n" +
+		"\"" + evil + "\",30,8.0,120,30,90,140,180,200\n"
+	if err := os.WriteFile(in, []byte(lab), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "r.html")
+	mustRun(t, exitOK, "", "report", in, "-o", out, "--title", evil, "--client", evil)
+	page, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(string(page), evil) {
+		t.Error("the sample name reaches the page unescaped")
+	}
+	if !strings.Contains(string(page), "&lt;script&gt;alert(1)&lt;/script&gt;") {
+		t.Error("the escaped sample name is missing")
+	}
+}
+
+func TestReportBadInput(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "r.html")
+	for _, args := range [][]string{
+		{"report", "-o", out}, // no input
+		{"report", "--demo", "-o", out, "--skin-temperature", "400"},   // out of range
+		{"report", "--demo", "-o", out, "--max-cycles", "0.5"},         // out of range
+		{"report", "--demo", "-o", out, "--reagent", "vinegar"},        // unknown reagent
+		{"report", "--demo", "-o", out, "--target", "colour=blue"},     // bad target
+		{"report", "--demo", "-o", out, "--detail", "-2"},              // negative
+		{"report", "--demo", "-o", out, "--format", "json"},            // not for HTML
+		{"report", "--demo", "-o", out, "--activity", "guess"},         // bad model
+		{"report", filepath.Join(dir, "absent.csv"), "-o", out},        // missing file
+		{"report", "--demo", "-o", out, "--limits", "no-such-profile"}, // bad profile
+	} {
+		mustRun(t, exitBadInput, "", args...)
+		if _, err := os.Stat(out); err == nil {
+			t.Errorf("%v: a report was written", args)
+			os.Remove(out)
+		}
+	}
+	// A bad row among good ones: the report is written, the exit is 2.
+	in := filepath.Join(dir, "lab.csv")
+	lab := "name,temperature [C],pH,Ca [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\n" +
+		"good,25,7.8,80,100,150\n" +
+		"bad,25,7.8,-3,100,150\n"
+	if err := os.WriteFile(in, []byte(lab), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	r := mustRun(t, exitBadInput, "", "report", in, "-o", out)
+	if !strings.Contains(r.stderr, "lab.csv:3") {
+		t.Errorf("stderr = %q, want the bad row located", r.stderr)
+	}
+	page, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal("no report written for a file with one bad row")
+	}
+	if !strings.Contains(string(page), "Samples not computed") {
+		t.Error("the report does not list the bad row")
+	}
+	// Writing into a directory that does not exist is a failure (exit 1)
+	// and leaves nothing behind.
+	mustRun(t, exitInternal, "", "report", "--demo", "-o", filepath.Join(dir, "absent", "r.html"))
+}
+
+func TestReportHelp(t *testing.T) {
+	r := mustRun(t, exitOK, "", "report", "--help")
+	if !strings.Contains(oneLine(r.stdout), oneLine(reports.Caution)) {
+		t.Error("report --help lacks the caution")
+	}
+	for _, want := range []string{"--skin-temperature", "--max-cycles", "--reagent", "--target", "-o, --output"} {
+		if !strings.Contains(r.stdout, want) {
+			t.Errorf("report --help lacks %q", want)
+		}
+	}
+	if strings.Contains(r.stdout, "--format") {
+		t.Error("report --help offers --format, which does not apply to HTML")
+	}
+}

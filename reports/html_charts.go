@@ -1,0 +1,425 @@
+package reports
+
+import (
+	"encoding/json"
+	"fmt"
+	"math"
+
+	"github.com/go-echarts/go-echarts/v2/charts"
+	"github.com/go-echarts/go-echarts/v2/opts"
+
+	"scalerisk/saturation"
+)
+
+// The charts are built with go-echarts and written by this package rather
+// than by go-echarts' page templates, for three reasons the style notes
+// give: go-echarts writes labels into the script unescaped, so user text
+// could end the script element; it writes floats at full precision; and
+// its page loads the script from a remote host. chartJSON therefore takes
+// the option object go-echarts builds, adds what go-echarts has no field
+// for (several panel titles, rich-text tooltips, mark bands), and encodes
+// it with encoding/json, which writes <, > and & as \u003c, \u003e and
+// \u0026 (so no text can close the script) and refuses NaN and ±Inf (so
+// no NaN can reach a chart, where it would silently empty it). All values
+// are rounded before they go in.
+
+// fontFamily is the chart font, the same stack as the page's.
+const fontFamily = "system-ui, -apple-system, 'Segoe UI', Roboto, 'Helvetica Neue', Arial, sans-serif"
+
+// chartJSON encodes a chart option object.
+func chartJSON(id string, option map[string]any) (json.RawMessage, error) {
+	b, err := json.Marshal(option)
+	if err != nil {
+		return nil, fmt.Errorf("chart %s: %w", id, err)
+	}
+	return b, nil
+}
+
+// xy is one point of a line: x in the axis unit (Unix milliseconds on a
+// time axis), y rounded for display.
+type xy struct{ X, Y float64 }
+
+// panel is one small chart of a panel chart: a line with its own y axis.
+type panel struct {
+	Title  string
+	Color  string
+	Points []xy
+	// SI draws the equilibrium line (SI = 0) and the near-equilibrium band
+	// (±0.2) and sizes the axis to show them.
+	SI bool
+	// Limit is the inhibitor limit (an SI) drawn as a dashed line; NaN for
+	// none.
+	Limit float64
+}
+
+// xMark is a vertical line across every panel, e.g. the highest cycles.
+type xMark struct {
+	X     float64
+	Label string
+}
+
+// panelChart is a grid of small charts that share an x axis variable, each
+// with its own y scale: a mineral with SI +12 does not flatten the line of
+// a mineral near 0, and each panel can show its own inhibitor limit.
+type panelChart struct {
+	ID         string
+	XName      string  // axis name, e.g. "°C"
+	Time       bool    // x is Unix milliseconds, shown as dates (UTC)
+	XMin, XMax float64 // axis range; NaN for automatic
+	Marks      []xMark
+	Panels     []panel
+}
+
+// Layout of panel charts, px.
+const (
+	panelRowHeight = 215
+	panelTitleGap  = 34
+	panelBottomGap = 50
+)
+
+func panelColumns(n int) int {
+	switch {
+	case n <= 2:
+		return max(n, 1)
+	case n == 4:
+		return 2
+	}
+	return 3
+}
+
+// height is the chart height in px.
+func (pc panelChart) height() int {
+	cols := panelColumns(len(pc.Panels))
+	rows := (len(pc.Panels) + cols - 1) / cols
+	return rows*panelRowHeight + 6
+}
+
+// option builds the echarts option of a panel chart.
+func (pc panelChart) option() (map[string]any, error) {
+	n := len(pc.Panels)
+	cols := panelColumns(n)
+	colWidth := 100.0 / float64(cols)
+	line := charts.NewLine()
+	var grids []opts.Grid
+	var titles []map[string]any
+	var xAxes []opts.XAxis
+	var yAxes []opts.YAxis
+	for i, p := range pc.Panels {
+		col, row := i%cols, i/cols
+		top := row*panelRowHeight + panelTitleGap
+		grids = append(grids, opts.Grid{
+			Left:   pct(float64(col)*colWidth + 5.5),
+			Width:  pct(colWidth - 9),
+			Top:    fmt.Sprintf("%dpx", top),
+			Height: fmt.Sprintf("%dpx", panelRowHeight-panelTitleGap-panelBottomGap),
+		})
+		titles = append(titles, map[string]any{
+			"text": p.Title, "left": pct(float64(col)*colWidth + 1.5), "top": row*panelRowHeight + 6,
+			"textStyle": map[string]any{"fontSize": 13, "fontWeight": 600, "color": "#1b2733", "fontFamily": fontFamily},
+		})
+		xa := opts.XAxis{
+			Type: "value", GridIndex: i, Name: pc.XName, NameLocation: "middle", NameGap: 26,
+			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true), HideOverlap: opts.Bool(true)},
+			SplitLine: &opts.SplitLine{Show: opts.Bool(false)},
+		}
+		if pc.Time {
+			// The first date is a data point, not a round date: its label
+			// would crowd the first month.
+			xa.Type = "time"
+			xa.AxisLabel.ShowMinLabel = opts.Bool(false)
+		}
+		if finite(pc.XMin) {
+			xa.Min = pc.XMin
+		}
+		if finite(pc.XMax) {
+			xa.Max = pc.XMax
+		}
+		xAxes = append(xAxes, xa)
+		lo, hi, step, err := p.yRange()
+		if err != nil {
+			return nil, fmt.Errorf("chart %s, panel %q: %w", pc.ID, p.Title, err)
+		}
+		yAxes = append(yAxes, opts.YAxis{
+			Type: "value", GridIndex: i, Min: lo, Max: hi, MinInterval: step, MaxInterval: step,
+			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)},
+			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: "#e6e9ee"}},
+		})
+	}
+	line.SetGlobalOptions(
+		charts.WithInitializationOpts(opts.Initialization{ChartID: pc.ID, Renderer: "svg", Width: "100%",
+			Height: fmt.Sprintf("%dpx", pc.height())}),
+		charts.WithAnimation(false),
+		charts.WithColorsOpts(opts.Colors(palette)),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
+		charts.WithGridOpts(grids...),
+	)
+	line.XAxisList, line.YAxisList = xAxes, yAxes
+	for i, p := range pc.Panels {
+		data := make([]opts.LineData, 0, len(p.Points))
+		for _, pt := range p.Points {
+			if !finite(pt.X) || !finite(pt.Y) {
+				continue
+			}
+			data = append(data, opts.LineData{Value: []float64{pt.X, pt.Y}})
+		}
+		marks := pc.markLines(p)
+		line.AddSeries(p.Title, data, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
+			s.XAxisIndex, s.YAxisIndex = i, i
+			s.Symbol, s.SymbolSize, s.ShowSymbol = "circle", 5, opts.Bool(true)
+			s.LineStyle = &opts.LineStyle{Width: 2, Color: p.Color}
+			s.ItemStyle = &opts.ItemStyle{Color: p.Color}
+			if len(marks) > 0 {
+				s.MarkLines = &opts.MarkLines{Data: marks,
+					MarkLineStyle: opts.MarkLineStyle{Symbol: []string{"none", "none"}}}
+			}
+			if p.SI {
+				// The near-equilibrium band as a [from, to] pair, which
+				// go-echarts' mark-area helpers do not write.
+				s.MarkAreas = &opts.MarkAreas{
+					Data:          []any{[]any{map[string]any{"yAxis": -nearBand}, map[string]any{"yAxis": nearBand}}},
+					MarkAreaStyle: opts.MarkAreaStyle{ItemStyle: &opts.ItemStyle{Color: "rgba(86,180,233,0.16)"}},
+				}
+			}
+		}))
+	}
+	line.Validate()
+	option := line.JSON()
+	option["title"] = titles
+	option["tooltip"] = richTooltip("axis")
+	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
+	if pc.Time {
+		option["useUTC"] = true
+	}
+	return option, nil
+}
+
+// nearBand is the half-width of the near-equilibrium band, SI units (the
+// band of saturation.RiskBand).
+const nearBand = 0.2
+
+// markLines are the equilibrium and inhibitor-limit lines of a panel and
+// the vertical marks of the chart.
+func (pc panelChart) markLines(p panel) []any {
+	var out []any
+	if p.SI {
+		out = append(out, map[string]any{
+			"yAxis": 0, "name": "equilibrium",
+			"lineStyle": map[string]any{"color": "#3b4a5a", "type": "solid", "width": 1},
+			"label":     map[string]any{"show": false},
+		})
+		if finite(p.Limit) {
+			out = append(out, map[string]any{
+				"yAxis": dec(p.Limit, 2), "name": "inhibitor limit " + signed(p.Limit, 2),
+				"lineStyle": map[string]any{"color": colVermilion, "type": "dashed", "width": 1.5},
+				"label": map[string]any{"formatter": "{b}", "position": "insideEndTop", "color": "#9a3600",
+					"fontSize": 10},
+			})
+		}
+	}
+	for _, m := range pc.Marks {
+		if !finite(m.X) {
+			continue
+		}
+		out = append(out, map[string]any{
+			"xAxis": m.X, "name": m.Label,
+			"lineStyle": map[string]any{"color": "#3b4a5a", "type": "dotted", "width": 1.5},
+			"label":     map[string]any{"formatter": "{b}", "position": "insideEndTop", "fontSize": 10, "color": "#3b4a5a"},
+		})
+	}
+	return out
+}
+
+// yRange is the y axis range of a panel and its tick interval: the data
+// with a margin, widened for SI panels to show the near-equilibrium band
+// and the inhibitor limit, and rounded outwards to a tick interval of 1, 2,
+// 2.5 or 5 times a power of ten that gives at most five intervals.
+func (p panel) yRange() (lo, hi, step float64, err error) {
+	lo, hi = math.Inf(1), math.Inf(-1)
+	for _, pt := range p.Points {
+		if finite(pt.Y) {
+			lo, hi = math.Min(lo, pt.Y), math.Max(hi, pt.Y)
+		}
+	}
+	if lo > hi {
+		return 0, 0, 0, errNoValue
+	}
+	if p.SI {
+		lo, hi = math.Min(lo, -nearBand-0.1), math.Max(hi, nearBand+0.1)
+		if finite(p.Limit) {
+			lo, hi = math.Min(lo, p.Limit), math.Max(hi, p.Limit+0.1)
+		}
+	}
+	pad := 0.04 * math.Max(hi-lo, 0.1)
+	lo, hi = lo-pad, hi+pad
+	step = tickStep((hi - lo) / 5)
+	lo, hi = math.Floor(lo/step)*step, math.Ceil(hi/step)*step
+	if hi-lo < 2*step {
+		lo, hi = lo-step, hi+step
+	}
+	return dec(lo, 6), dec(hi, 6), step, nil
+}
+
+// tickStep returns the smallest of 1, 2, 2.5 and 5 times a power of ten
+// that is at least x > 0.
+func tickStep(x float64) float64 {
+	p := math.Pow(10, math.Floor(math.Log10(x)))
+	for _, m := range []float64{1, 2, 2.5, 5} {
+		if m*p >= x*(1-1e-9) {
+			return dec(m*p, 9)
+		}
+	}
+	return dec(10*p, 9)
+}
+
+// richTooltip is a tooltip drawn as chart text rather than HTML, so that
+// no label can become markup.
+func richTooltip(trigger string) map[string]any {
+	return map[string]any{"show": true, "trigger": trigger, "renderMode": "richText", "confine": true}
+}
+
+func pct(x float64) string { return fmt.Sprintf("%.1f%%", x) }
+
+// heatCell is one cell of the limiting-mineral map.
+type heatCell struct {
+	X, Y  int // column and row index
+	Band  saturation.Band
+	Label string // mineral and SI
+}
+
+// heatChart is a temperature × cycles map of the limiting mineral: each
+// cell coloured by its risk band and labelled with the mineral and its SI.
+type heatChart struct {
+	ID           string
+	XName, YName string
+	XLabels      []string // columns
+	YLabels      []string // rows, bottom to top
+	Cells        []heatCell
+}
+
+func (hc heatChart) height() int { return len(hc.YLabels)*36 + 120 }
+
+func (hc heatChart) option() map[string]any {
+	hm := charts.NewHeatMap()
+	hm.SetGlobalOptions(
+		charts.WithInitializationOpts(opts.Initialization{ChartID: hc.ID, Renderer: "svg", Width: "100%",
+			Height: fmt.Sprintf("%dpx", hc.height())}),
+		charts.WithAnimation(false),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
+		charts.WithGridOpts(opts.Grid{Left: "80px", Right: "24px", Top: "16px", Bottom: "96px"}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "category", Data: hc.XLabels, Name: hc.XName, NameLocation: "middle",
+			NameGap: 28, SplitArea: &opts.SplitArea{Show: opts.Bool(false)}}),
+		charts.WithYAxisOpts(opts.YAxis{Type: "category", Data: hc.YLabels, Name: hc.YName, NameLocation: "middle",
+			NameGap: 52, AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)}}),
+	)
+	hm.SetXAxis(hc.XLabels)
+	data := make([]map[string]any, 0, len(hc.Cells))
+	for _, c := range hc.Cells {
+		st := bandStyleOf(c.Band)
+		data = append(data, map[string]any{
+			"name": c.Label, "value": []int{c.X, c.Y, int(c.Band)},
+			"label": map[string]any{"color": st.Text},
+		})
+	}
+	hm.AddSeries("limiting mineral", nil, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
+		s.Data = data
+		s.Label = &opts.Label{Show: opts.Bool(true), Formatter: "{b}", FontSize: 10, LineHeight: 12}
+		s.ItemStyle = &opts.ItemStyle{BorderColor: "#ffffff", BorderWidth: 1}
+	}))
+	hm.Validate()
+	option := hm.JSON()
+	var pieces []map[string]any
+	for _, b := range allBands {
+		if b == saturation.SlowToForm {
+			continue // never limiting
+		}
+		pieces = append(pieces, map[string]any{"value": int(b), "label": b.String(), "color": bandStyleOf(b).Fill})
+	}
+	option["visualMap"] = []map[string]any{{
+		"type": "piecewise", "dimension": 2, "pieces": pieces, "orient": "horizontal",
+		"left": "center", "bottom": 4, "itemWidth": 14, "itemHeight": 12, "selectedMode": false,
+		"textStyle": map[string]any{"fontSize": 11},
+	}}
+	option["tooltip"] = map[string]any{"show": true, "trigger": "item", "renderMode": "richText",
+		"confine": true, "formatter": "{b}"}
+	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
+	return option
+}
+
+// ionBar is one series of the composition chart: an ion (or group) and
+// its meq/L among the cations or the anions.
+type ionBar struct {
+	Name      string
+	Cation    bool
+	MeqPerL   float64
+	Color     string
+	TextColor string // of the label on the bar
+}
+
+// compositionChart is a horizontal stacked bar of cations and anions,
+// meq/L: the two bars are equally long when the ions balance.
+type compositionChart struct {
+	ID   string
+	Ions []ionBar
+}
+
+func (cc compositionChart) height() int { return 230 }
+
+func (cc compositionChart) option() map[string]any {
+	bar := charts.NewBar()
+	bar.SetGlobalOptions(
+		charts.WithInitializationOpts(opts.Initialization{ChartID: cc.ID, Renderer: "svg", Width: "100%",
+			Height: fmt.Sprintf("%dpx", cc.height())}),
+		charts.WithAnimation(false),
+		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Bottom: "0", ItemWidth: 14, ItemHeight: 10}),
+		charts.WithGridOpts(opts.Grid{Left: "80px", Right: "32px", Top: "12px", Bottom: "84px"}),
+		// Horizontal bars: the categories go on the y axis (XYReversal).
+		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "meq/L", NameLocation: "middle", NameGap: 26}),
+		charts.WithYAxisOpts(opts.YAxis{Type: "category", AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)}}),
+	)
+	categories := []string{"anions", "cations"}
+	bar.SetXAxis(categories)
+	var cationSum, anionSum float64
+	for _, ion := range cc.Ions {
+		if ion.Cation {
+			cationSum += ion.MeqPerL
+		} else {
+			anionSum += ion.MeqPerL
+		}
+	}
+	longest := math.Max(cationSum, anionSum)
+	for _, ion := range cc.Ions {
+		v := sig(ion.MeqPerL, 3)
+		cell := map[string]any{"value": v, "label": map[string]any{"show": v >= 0.07*longest}}
+		empty := map[string]any{"value": "-"}
+		data := []map[string]any{cell, empty}
+		if ion.Cation {
+			data = []map[string]any{empty, cell}
+		}
+		bar.AddSeries(ion.Name, nil, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
+			s.Data = data
+			s.Stack = "meq"
+			s.BarWidth = "46%"
+			s.ItemStyle = &opts.ItemStyle{Color: ion.Color, BorderColor: "#ffffff", BorderWidth: 1}
+			s.Label = &opts.Label{Show: opts.Bool(true), Formatter: "{a}", FontSize: 11, Color: ion.TextColor}
+		}))
+	}
+	bar.XYReversal()
+	bar.Validate()
+	option := bar.JSON()
+	option["tooltip"] = map[string]any{"show": true, "trigger": "item", "renderMode": "richText",
+		"confine": true, "formatter": "{a}: {c} meq/L"}
+	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
+	return option
+}
+
+// signed formats x with a sign and n decimals ("+1.26", "−0.40").
+func signed(x float64, n int) string {
+	if !finite(x) {
+		return "—"
+	}
+	s := fmt.Sprintf("%+.*f", n, dec(x, n))
+	if s[0] == '-' {
+		return "−" + s[1:]
+	}
+	return s
+}

@@ -1,0 +1,118 @@
+package reports
+
+import (
+	"errors"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"scalerisk/saturation"
+)
+
+// TestChartLabelsEscaped: text that reaches a chart (a panel title, a heat
+// map label, a mark) is encoded so that it cannot end the script element
+// or become markup: go-echarts itself would write it as it is.
+func TestChartLabelsEscaped(t *testing.T) {
+	const evil = `</script><script>alert(1)</script>`
+	pc := panelChart{ID: "t", XName: evil, XMin: math.NaN(), XMax: math.NaN(),
+		Marks:  []xMark{{X: 1, Label: evil}},
+		Panels: []panel{{Title: evil, Color: colBlue, SI: true, Limit: 1, Points: []xy{{0, 0.5}, {1, 0.7}}}}}
+	option, err := pc.option()
+	if err != nil {
+		t.Fatal(err)
+	}
+	hc := heatChart{ID: "h", XLabels: []string{evil}, YLabels: []string{evil},
+		Cells: []heatCell{{X: 0, Y: 0, Band: saturation.BeyondReach, Label: evil}}}
+	cc := compositionChart{ID: "c", Ions: []ionBar{{Name: evil, Cation: true, MeqPerL: 2, Color: colBlue}}}
+	for id, opt := range map[string]map[string]any{"t": option, "h": hc.option(), "c": cc.option()} {
+		raw, err := chartJSON(id, opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := string(raw)
+		if strings.ContainsAny(s, "<>") {
+			t.Errorf("chart %s: option holds < or >: %.200s", id, s)
+		}
+		if !strings.Contains(s, `\u003c/script\u003e`) {
+			t.Errorf("chart %s: the label is not in the option, escaped", id)
+		}
+	}
+}
+
+// TestChartRefusesNaN: a NaN that slips into an option is an error, never a
+// silently empty chart.
+func TestChartRefusesNaN(t *testing.T) {
+	if _, err := chartJSON("x", map[string]any{"series": []any{map[string]any{"data": []float64{1, math.NaN()}}}}); err == nil {
+		t.Error("chartJSON accepted NaN")
+	}
+	// Panels drop NaN points; a panel with no finite point is an error.
+	p := panel{Title: "p", Points: []xy{{0, math.NaN()}}, Limit: math.NaN()}
+	if _, _, _, err := p.yRange(); err == nil {
+		t.Error("yRange of a panel without values: no error")
+	}
+	pc := panelChart{ID: "n", XMin: math.NaN(), XMax: math.NaN(),
+		Panels: []panel{{Title: "p", Limit: math.NaN(), Points: []xy{{0, 1}, {1, math.NaN()}, {math.Inf(1), 2}}}}}
+	option, err := pc.option()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := chartJSON("n", option); err != nil {
+		t.Errorf("NaN points reach the option: %v", err)
+	}
+}
+
+// TestWriteAtomicFailure: a write that fails half-way leaves the earlier
+// file untouched and no temporary file.
+func TestWriteAtomicFailure(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "r.html")
+	if err := os.WriteFile(path, []byte("earlier"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	boom := errors.New("boom")
+	err := writeAtomic(path, func(w io.Writer) error {
+		io.WriteString(w, "<!DOCTYPE html><html><body>half a rep")
+		return boom
+	})
+	if !errors.Is(err, boom) {
+		t.Fatalf("err = %v, want boom", err)
+	}
+	got, _ := os.ReadFile(path)
+	if string(got) != "earlier" {
+		t.Errorf("file holds %q after a failed write, want the earlier content", got)
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 1 {
+		t.Errorf("%d entries in the directory, want 1 (no temporary file left)", len(entries))
+	}
+	if err := writeAtomic(path, func(w io.Writer) error { _, err := io.WriteString(w, "new"); return err }); err != nil {
+		t.Fatal(err)
+	}
+	if got, _ := os.ReadFile(path); string(got) != "new" {
+		t.Errorf("file holds %q, want new", got)
+	}
+}
+
+func TestTickAndDoseRounding(t *testing.T) {
+	for _, c := range []struct{ x, want float64 }{{0.07, 0.1}, {0.3, 0.5}, {0.9, 1}, {1.2, 2}, {2.2, 2.5}, {7, 10}, {42, 50}} {
+		if got := tickStep(c.x); got != c.want {
+			t.Errorf("tickStep(%g) = %g, want %g", c.x, got, c.want)
+		}
+	}
+	for _, c := range []struct{ x, want float64 }{{153, 155}, {1234, 1250}, {7.12, 7.15}, {100, 100}} {
+		if got := roundUp(c.x); got != c.want {
+			t.Errorf("roundUp(%g) = %g, want %g", c.x, got, c.want)
+		}
+	}
+}
+
+func TestMineralLabel(t *testing.T) {
+	for in, want := range map[string]string{"silica_amorphous": "amorphous silica", "tricalcium_phosphate": "tricalcium phosphate", "calcite": "calcite"} {
+		if got := mineralLabel(in); got != want {
+			t.Errorf("mineralLabel(%q) = %q, want %q", in, got, want)
+		}
+	}
+}

@@ -1,0 +1,247 @@
+package reports
+
+import (
+	"cmp"
+	"fmt"
+	"slices"
+	"strings"
+
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// Treatment holds the answers of the treatment searches for one sample of
+// an HTML report. The report only presents them; the command that ran the
+// searches fills the parts it has. Every part is optional: a nil pointer or
+// an empty slice leaves its table out. (The classic indices and the scale
+// that could form come with the assessment itself: Assessment.Indices and
+// Assessment.Precipitation.)
+type Treatment struct {
+	// Dose is the dose that brings the sample to a target
+	// (saturation.DoseToTarget). Its dose is marked on the dose chart when
+	// the reagent is the chart's.
+	Dose *saturation.DoseResult
+	// Cycles is the highest cycles of concentration under a limit profile
+	// (saturation.MaxCycles). When it has points, the cycles chart shows
+	// them (under its carbonate rule) instead of a sweep of its own, and
+	// marks the highest cycles.
+	Cycles *saturation.CyclesResult
+	// CyclesRule names the carbonate rule Cycles was computed under, in
+	// words ("closed", "air", "ph=7.8").
+	CyclesRule string
+	// Blends lists blends of the sample with other waters.
+	Blends []BlendAnswer
+	// Notes are remarks on the searches a reader should see, shown as
+	// given.
+	Notes []string
+}
+
+// BlendAnswer is a blend of the sample with a partner water.
+type BlendAnswer struct {
+	Partner  string  // name of the other water
+	Fraction float64 // share of the sample in the blend, 0–1 by volume
+	Result   *saturation.Result
+}
+
+// treatmentView is the treatment part of a sample's section.
+type treatmentView struct {
+	Dose         []kv
+	Effects      []effectRow
+	DoseWarnings []string
+	Caution      string
+	Cycles       []kv
+	CycleNotes   []string
+	Blends       []blendView
+	Notes        []string
+}
+
+type indexRow struct{ Name, Value, Reading string }
+
+type effectRow struct {
+	Mineral, Before, After string
+	Band                   chip
+}
+
+type scaleRow struct{ Mineral, SI, Alone, Together, AloneKg, TogetherKg string }
+
+type blendView struct {
+	Title    string
+	Minerals []mineralRow
+}
+
+// indexRows lays out the classic indices of an assessment.
+func indexRows(ix *saturation.Indices) []indexRow {
+	if ix == nil {
+		return nil
+	}
+	return []indexRow{
+		{"Langelier (LSI, Standard Methods 2330)", signed(ix.LSI, 2), "above 0 CaCO₃ tends to deposit, below 0 to dissolve; pHs " + num(ix.PHs, 2)},
+		{"Langelier, simplified form", signed(ix.LSISimplified, 2), "the common A + B − C − D tabulation"},
+		{"Ryznar (RSI)", num(ix.RSI, 2), "below about 6 scale-forming, above about 7 corrosive tendency"},
+		{"Puckorius (PSI)", num(ix.PSI, 2), "as Ryznar, with the equilibrium pH from the alkalinity"},
+		{"Stiff–Davis", signed(ix.StiffDavis, 2), "Langelier's form for waters of high ionic strength"},
+		{"Larson–Skold", num(ix.LarsonSkold, 2), "(Cl⁻ + SO₄²⁻)/alkalinity in equivalents: corrosivity to mild steel above about 0.8"},
+		{"CaCO₃ precipitation potential", num(ix.CCPP, 1) + " mg/L", "positive: CaCO₃ that would precipitate (as CaCO₃)"},
+	}
+}
+
+// scaleRows lays out the precipitation potential of an assessment; the
+// kg/day columns are empty when no flow was given.
+func scaleRows(ps []saturation.Precipitation, flow float64) []scaleRow {
+	var out []scaleRow
+	for _, p := range ps {
+		row := scaleRow{Mineral: mineralLabel(p.Mineral), SI: signed(p.SI, 2), Alone: sigText(p.Alone, 3),
+			Together: sigText(p.Together, 3)}
+		if flow > 0 {
+			row.AloneKg = sigText(saturation.KgPerDay(p.Alone, flow), 3)
+			row.TogetherKg = sigText(saturation.KgPerDay(p.Together, flow), 3)
+		}
+		out = append(out, row)
+	}
+	return out
+}
+
+// quantityLabel words a limit quantity: "si:gypsum" → "gypsum (SI)",
+// "lsi" → "Langelier index", "mg_per_l:SiO2" → "SiO2 (mg/L)".
+func quantityLabel(q string) string {
+	kind, arg, _ := strings.Cut(q, ":")
+	switch kind {
+	case "si":
+		return mineralLabel(arg) + " (SI)"
+	case "lsi":
+		return "Langelier index"
+	case "mg_per_l":
+		return arg + " (mg/L)"
+	}
+	return q
+}
+
+// treatment lays out the treatment answers of a sample; nil when it has
+// none.
+func (b *builder) treatment(s ReportSample) *treatmentView {
+	t := s.Treatment
+	if t == nil {
+		return nil
+	}
+	tv := &treatmentView{Notes: t.Notes}
+	if d := t.Dose; d != nil {
+		reached := "yes"
+		if !d.Reached {
+			reached = "no (see the note below)"
+		}
+		tv.Dose = []kv{
+			{"Reagent", d.Reagent.Label + " (" + d.Reagent.Formula + "), " + num(d.Strength, 0) + " % product"},
+			{"Target", targetLabel(d.Target)},
+			{"Dose", num(d.Dose, 1) + " mg/L of product"},
+			{"Target reached", reached},
+		}
+		if s.Flow > 0 && d.Reached {
+			tv.Dose = append(tv.Dose, kv{"At the flow given", sigText(saturation.KgPerDay(d.Dose, s.Flow), 3) + " kg/day of product"})
+		}
+		if d.Before.Result != nil && d.After.Result != nil {
+			tv.Dose = append(tv.Dose, kv{"pH", num(d.Before.Result.PH, 2) + " → " + num(d.After.Result.PH, 2)},
+				kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2)})
+			for _, m := range d.After.Result.Minerals {
+				before, ok := d.Before.Result.SI(m.Name)
+				if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !scaleFormer(m.Name, m.SI) {
+					continue
+				}
+				tv.Effects = append(tv.Effects, effectRow{Mineral: mineralLabel(m.Name), Before: signed(before, 2),
+					After: signed(m.SI, 2), Band: bandChip(saturation.RiskBand(m.Name, m.SI))})
+			}
+		}
+		// The reagent's caution is shown in its own box below.
+		for _, w := range d.Warnings {
+			if c := strings.TrimSpace(d.Reagent.Caution); c == "" || !strings.Contains(w, c) {
+				tv.DoseWarnings = append(tv.DoseWarnings, w)
+			}
+		}
+		tv.Caution = DoseCaution
+		if c := strings.TrimSpace(d.Reagent.Caution); c != "" {
+			tv.Caution = sentence(c)
+		}
+	}
+	if c := t.Cycles; c != nil {
+		highest, limiting := num(c.MaxCycles, 2), "none within the range searched"
+		var exceeded []string
+		for _, q := range c.Exceeded {
+			exceeded = append(exceeded, quantityLabel(q))
+		}
+		switch {
+		case len(exceeded) > 0:
+			highest, limiting = "none: the water is already past a limit", strings.Join(exceeded, ", ")
+		case c.Limiting != "":
+			limiting = quantityLabel(c.Limiting)
+		}
+		tv.Cycles = []kv{
+			{"Highest cycles of concentration", highest},
+			{"Limited by", limiting},
+			{"Limit profile", c.Profile.Name},
+		}
+		if t.CyclesRule != "" {
+			tv.Cycles = append(tv.Cycles, kv{"Carbonate system", t.CyclesRule})
+		}
+		for _, l := range c.Profile.Limits {
+			if l.Quantity == c.Limiting {
+				tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s ≤ %g (%s)", quantityLabel(l.Quantity), l.Max, l.Source)})
+			}
+		}
+		if len(exceeded) > 0 {
+			tv.CycleNotes = append(tv.CycleNotes, "The water itself is already past the limits for "+
+				strings.Join(exceeded, ", ")+": treat it before concentrating it.")
+		}
+		for _, w := range c.Warnings {
+			if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {
+				continue // said above in words
+			}
+			tv.CycleNotes = append(tv.CycleNotes, w)
+		}
+	}
+	for _, bl := range t.Blends {
+		bv := blendView{Title: fmt.Sprintf("%s %% of this water with %s %% of %s", num(100*bl.Fraction, 0),
+			num(100*(1-bl.Fraction), 0), bl.Partner)}
+		if bl.Result != nil {
+			ms := slices.Clone(bl.Result.Minerals)
+			slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
+			for _, m := range ms {
+				if !finite(m.SI) || !scaleFormer(m.Name, m.SI) || len(bv.Minerals) >= 6 {
+					continue
+				}
+				bv.Minerals = append(bv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
+					SI: signed(m.SI, 2), Band: bandChip(saturation.RiskBand(m.Name, m.SI))})
+			}
+		}
+		tv.Blends = append(tv.Blends, bv)
+	}
+	return tv
+}
+
+// sentence returns s with a full stop at the end.
+func sentence(s string) string {
+	s = strings.TrimSpace(s)
+	if s == "" || strings.HasSuffix(s, ".") {
+		return s
+	}
+	return s + "."
+}
+
+// targetLabel words a dose target: "pH 7", "LSI +0.5", "SI of calcite +0.8".
+func targetLabel(t saturation.Target) string {
+	switch t.Kind {
+	case "ph":
+		return "pH " + strings.TrimSuffix(strings.TrimRight(fmt.Sprintf("%.2f", t.Value), "0"), ".")
+	case "si":
+		return "SI of " + mineralLabel(t.Mineral) + " " + signed(t.Value, 2)
+	case "":
+		return "—"
+	}
+	return strings.ToUpper(t.Kind) + " " + signed(t.Value, 2)
+}
+
+// reagentLabel words a reagent with its strength.
+func reagentLabel(r water.Reagent, strength float64) string {
+	if strength == 0 {
+		strength = r.Strength
+	}
+	return fmt.Sprintf("%s %% %s (%s)", num(strength, 0), r.Label, r.Formula)
+}
