@@ -891,6 +891,13 @@ func entered(a water.Analysis, r *saturation.Result) ([]kv, []componentRow) {
 	if finite(a.Pressure) && a.Pressure != 1 {
 		fields = append(fields, kv{"Pressure", num(a.Pressure, 2) + " atm"})
 	}
+	for _, m := range a.Entered {
+		raw := strconv.FormatFloat(m.Value, 'g', -1, 64)
+		if m.BelowDetection {
+			raw = "<" + strconv.FormatFloat(m.Limit, 'g', -1, 64) + " (used: " + raw + ")"
+		}
+		fields = append(fields, kv{m.Column, raw + " " + m.Unit.Text})
+	}
 	var rows []componentRow
 	for _, c := range water.Components() {
 		if c == water.C || !(a.Measured[c] || a.Totals[c] > 0) {

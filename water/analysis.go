@@ -57,6 +57,10 @@ type Analysis struct {
 	MeasuredTDS          float64
 	MeasuredConductivity float64
 
+	// Entered holds the analyte values as the laboratory reported them, in
+	// their own units, in file order (nil for a transformed water).
+	Entered []Measurement
+
 	// BelowDetection lists the analytes reported below their detection limit
 	// with the substitute value used, e.g. "Ba <0.01 mg/L taken as 0.005".
 	BelowDetection []string
@@ -68,6 +72,7 @@ type Analysis struct {
 func (a Analysis) Clone() Analysis {
 	b := a
 	b.BelowDetection = append([]string(nil), a.BelowDetection...)
+	b.Entered = append([]Measurement(nil), a.Entered...)
 	b.Warnings = append([]string(nil), a.Warnings...)
 	return b
 }
@@ -147,7 +152,8 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 	a := Analysis{Name: s.Name, Date: s.Date, Temperature: s.Temperature, PH: s.PH,
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
 		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
-		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity}
+		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity,
+		Entered: append([]Measurement(nil), s.Measurements...)}
 	if math.IsNaN(a.Temperature) {
 		a.Temperature = 25
 		a.Warnings = append(a.Warnings, "temperature not given: 25 °C assumed")

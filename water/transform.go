@@ -85,6 +85,7 @@ func reestimateDensity(a Analysis, b *Analysis) {
 // the pH (to be recomputed at b's temperature), the carbonate part of the
 // alkalinity, and the measured TDS and conductivity.
 func afterTransform(b *Analysis) {
+	b.Entered = nil
 	b.PH = math.NaN()
 	b.PHTemperature = b.Temperature
 	b.CarbonateAlkalinity = math.NaN()
