@@ -195,10 +195,13 @@ type CyclesJSON struct {
 // CyclesPointJSON is the water at one number of cycles.
 type CyclesPointJSON struct {
 	Cycles          float64            `json:"cycles"`
+	ActivityModel   string             `json:"activity_model,omitempty"`
+	AcidMgPerL      *float64           `json:"acid_mg_per_l,omitempty"`
 	PH              *float64           `json:"ph,omitempty"`
 	IonicStrength   *float64           `json:"ionic_strength,omitempty"`
 	SaturationIndex map[string]float64 `json:"saturation_index,omitempty"`
 	LSI             *float64           `json:"lsi,omitempty"`
+	Warnings        []string           `json:"warnings,omitempty"`
 	Error           *string            `json:"error,omitempty"`
 }
 
@@ -239,6 +242,11 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 				msg := p.Err.Error()
 				pj.Error = &msg
 			} else {
+				pj.ActivityModel = p.Result.Activity.String()
+				if r.Rule.SetPoint > 0 {
+					pj.AcidMgPerL = optional(p.Dose, func(x float64) float64 { return sig(x, 4) })
+				}
+				pj.Warnings = p.Result.Warnings
 				pj.PH = optional(p.Result.PH, func(x float64) float64 { return dec(x, 3) })
 				pj.IonicStrength = optional(p.Result.IonicStrength, func(x float64) float64 { return sig(x, 4) })
 				pj.LSI = optional(p.Indices.LSI, func(x float64) float64 { return dec(x, 2) })
@@ -308,7 +316,11 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
 			fmt.Fprintf(&b, "  At %.3g m³/h evaporation: make-up %.3g m³/h, blowdown %.3g m³/h (drift neglected).\n", c.Evaporation, m, bd)
 		}
+		acid := r.Rule.SetPoint > 0
 		fmt.Fprintf(&b, "  %7s  %6s  %6s", "cycles", "pH", "LSI")
+		if acid {
+			fmt.Fprintf(&b, "  %9s", "acid mg/L")
+		}
 		var names []string
 		for _, l := range r.Profile.Limits {
 			if strings.HasPrefix(l.Quantity, "si:") {
@@ -324,7 +336,10 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 				fmt.Fprintf(&b, "  %7.2f  %v\n", p.Cycles, p.Err)
 				continue
 			}
-			fmt.Fprintf(&b, "  %7.2f  %6.2f  %+6.2f", p.Cycles, p.Result.PH, p.Indices.LSI)
+			fmt.Fprintf(&b, "  %7.2f  %6.2f  %6s", p.Cycles, p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+			if acid {
+				fmt.Fprintf(&b, "  %9.4g", p.Dose)
+			}
 			for _, n := range names {
 				if v, ok := p.Result.SI(n); ok {
 					fmt.Fprintf(&b, "  %+*.2f", max(8, len(n)), v)
@@ -334,8 +349,18 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 			}
 			b.WriteString("\n")
 		}
-		for _, wn := range r.Warnings {
-			fmt.Fprintf(&b, "  - %s\n", wn)
+		seen := map[string]bool{}
+		notes := append([]string(nil), r.Warnings...)
+		for _, p := range r.Points {
+			if p.Result != nil {
+				notes = append(notes, p.Result.Warnings...)
+			}
+		}
+		for _, wn := range notes {
+			if !seen[wn] {
+				seen[wn] = true
+				fmt.Fprintf(&b, "  - %s\n", wn)
+			}
 		}
 	}
 	b.WriteString("\n" + wrap(Caution, 78) + "\n")

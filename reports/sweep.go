@@ -4,7 +4,9 @@ import (
 	"encoding/csv"
 	"fmt"
 	"io"
+	"maps"
 	"math"
+	"slices"
 	"strings"
 
 	"scalerisk/saturation"
@@ -63,6 +65,10 @@ func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
 			if p.Err != nil {
 				pt["error"] = p.Err.Error()
 			} else {
+				pt["activity_model"] = p.Result.Activity.String()
+				if len(p.Result.Warnings) > 0 {
+					pt["warnings"] = p.Result.Warnings
+				}
 				pt["ph"] = dec(p.Result.PH, 3)
 				pt["ionic_strength"] = sig(p.Result.IonicStrength, 4)
 				si := map[string]float64{}
@@ -158,6 +164,7 @@ func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
 			fmt.Fprintf(&b, "  %*s", max(8, len(m)), m)
 		}
 		b.WriteString("\n")
+		notes := map[string]bool{}
 		for _, p := range s.Points {
 			fmt.Fprintf(&b, "  %13.4g", p.X)
 			if s.Y != nil {
@@ -168,6 +175,9 @@ func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
 				continue
 			}
 			fmt.Fprintf(&b, "  %6.2f  %6s", p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+			for _, wn := range p.Result.Warnings {
+				notes[wn] = true
+			}
 			for _, m := range shown {
 				if v, ok := p.Result.SI(m); ok {
 					fmt.Fprintf(&b, "  %+*.2f", max(8, len(m)), v)
@@ -176,6 +186,9 @@ func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
 				}
 			}
 			b.WriteString("\n")
+		}
+		for _, wn := range slices.Sorted(maps.Keys(notes)) {
+			fmt.Fprintf(&b, "  - %s\n", wn)
 		}
 	}
 	b.WriteString("\n" + wrap(Caution, 78) + "\n")

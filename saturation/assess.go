@@ -1,6 +1,10 @@
 package saturation
 
-import "scalerisk/water"
+import (
+	"errors"
+
+	"scalerisk/water"
+)
 
 // Assessment is everything computed for one sample of a file: the analysis
 // as read, its data-quality checks, its equilibrium state with the classic
@@ -63,6 +67,7 @@ func (sp *Speciator) assess(as *Assessment, a water.Analysis, opt Options) {
 	as.Quality = a.Quality()
 	as.Result, as.Err = sp.Speciate(a, opt)
 	if as.Err != nil {
+		as.BadInput = errors.Is(as.Err, ErrInconsistent)
 		return
 	}
 	ix, w := sp.ClassicIndices(as.Result, opt)

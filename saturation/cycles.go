@@ -11,56 +11,102 @@ import (
 // CarbonateRule says how the carbonate system of a concentrated water is
 // found at each cycle.
 type CarbonateRule struct {
-	Mode CarbonateMode // Closed, FixedPCO2 (air) or FixedPH
-	PH   float64       // for FixedPH
+	Name string        // as given: closed, air, ph=7.8, natural, relation=A,B
+	Mode CarbonateMode // Closed, FixedPCO2 (air), FixedPHAlkalinity (relations)
 	// A and B, when set (A ≠ 0), give the pH from the total alkalinity as
-	// pH = A·log10(TA, mg/L as CaCO3) + B: a relation observed in the
-	// tower, or the "natural" one, 1.465 and 4.54 (Puckorius & Brooke 1991,
-	// as read in UFC 3-240-13FN and a trade glossary; common practice).
+	// pH = A·log10(TA, mg/L as CaCO3) + B, alkalinity conserved and carbon
+	// following: a relation observed in the tower, or the "natural" one,
+	// 1.465 and 4.54 (Puckorius & Brooke 1991, as read in UFC 3-240-13FN
+	// and a trade glossary; common practice).
 	A, B float64
+	// SetPoint, when above 0, is an acid-controlled pH: at each cycle the
+	// dose of Reagent that brings the water, open to air, to SetPoint is
+	// added (none where the water is already at or below it); its sulfate
+	// or chloride comes with it.
+	SetPoint float64
+	Reagent  water.Reagent
 }
 
-// ParseCarbonateRule parses "closed", "air", "ph=7.8", "natural" or
-// "relation=A,B".
+// ParseCarbonateRule parses "closed", "air", "ph=7.8" (acid control with
+// reagent, sulfuric acid when zero), "natural" or "relation=A,B".
 func ParseCarbonateRule(s string) (CarbonateRule, error) {
 	s = strings.ToLower(strings.TrimSpace(s))
+	r := CarbonateRule{Name: s}
 	switch {
 	case s == "" || s == "closed":
-		return CarbonateRule{Mode: Closed}, nil
+		r.Name, r.Mode = "closed", Closed
 	case s == "air":
-		return CarbonateRule{Mode: FixedPCO2}, nil
+		r.Mode = FixedPCO2
 	case s == "natural":
-		return CarbonateRule{Mode: FixedPH, A: 1.465, B: 4.54}, nil
+		r.Mode, r.A, r.B = FixedPHAlkalinity, 1.465, 4.54
 	case strings.HasPrefix(s, "ph="):
 		v, err := water.ParseNumber(strings.TrimPrefix(s, "ph="))
-		if err != nil || v < 0 || v > 14 {
-			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want ph= a pH from 0 to 14", s)
+		if err != nil || v < 2 || v > 12 {
+			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want ph= a set point from 2 to 12", s)
 		}
-		return CarbonateRule{Mode: FixedPH, PH: v}, nil
+		r.Mode, r.SetPoint = FixedPCO2, v
+		acid, err := water.LookupReagent("h2so4")
+		if err != nil {
+			return CarbonateRule{}, err
+		}
+		r.Reagent = acid
 	case strings.HasPrefix(s, "relation="):
 		a, b, ok := strings.Cut(strings.TrimPrefix(s, "relation="), ",")
 		av, err1 := water.ParseNumber(a)
 		bv, err2 := water.ParseNumber(b)
-		if !ok || err1 != nil || err2 != nil || av == 0 {
-			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want relation=A,B for pH = A·log10(TA) + B", s)
+		if !ok || err1 != nil || err2 != nil || av <= 0 || av > 10 || math.Abs(bv) > 20 {
+			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want relation=A,B for pH = A·log10(TA) + B, 0 < A ≤ 10, |B| ≤ 20", s)
 		}
-		return CarbonateRule{Mode: FixedPH, A: av, B: bv}, nil
+		r.Mode, r.A, r.B = FixedPHAlkalinity, av, bv
+	default:
+		return CarbonateRule{}, fmt.Errorf("unknown carbonate rule %q (want closed, air, ph=VALUE, natural or relation=A,B)", s)
 	}
-	return CarbonateRule{}, fmt.Errorf("unknown carbonate rule %q (want closed, air, ph=VALUE, natural or relation=A,B)", s)
+	return r, nil
 }
 
-// options returns opt set for water w under the rule.
-func (c CarbonateRule) options(w water.Analysis, opt Options) Options {
+// WithReagent returns the rule with the acid of its set point replaced.
+func (c CarbonateRule) WithReagent(r water.Reagent) CarbonateRule {
+	c.Reagent = r
+	return c
+}
+
+// options returns opt set for water w under the rule (the acid of a set
+// point is applied by apply).
+func (c CarbonateRule) options(w water.Analysis, opt Options) (Options, error) {
 	o := opt
 	o.Carbonate = c.Mode
-	switch {
-	case c.A != 0:
+	if c.A != 0 {
 		ta := w.Alkalinity * w.WaterPerLitre * 1000 * equivalentMassCaCO3
+		if !(ta > 0) {
+			return o, fmt.Errorf("%w: the %s rule needs a positive alkalinity", ErrInconsistent, c.Name)
+		}
 		o.PH = c.A*math.Log10(ta) + c.B
-	case c.Mode == FixedPH:
-		o.PH = c.PH
+		if o.PH < 2 || o.PH > 12 {
+			return o, fmt.Errorf("%w: the %s rule gives pH %.3g at %.3g mg/L alkalinity", ErrInconsistent, c.Name, o.PH, ta)
+		}
 	}
-	return o
+	return o, nil
+}
+
+// apply speciates w under the rule: for a set point, after the dose of acid
+// that holds it (returned, mg/L of product; 0 when none is needed).
+func (c CarbonateRule) apply(sp *Speciator, w water.Analysis, opt Options) (*Result, water.Analysis, float64, error) {
+	o, err := c.options(w, opt)
+	if err != nil {
+		return nil, w, 0, err
+	}
+	r, err := sp.Speciate(w, o)
+	if err != nil || c.SetPoint == 0 || r.PH <= c.SetPoint {
+		return r, w, 0, err
+	}
+	d, err := DoseToTarget(w, c.Reagent, 0, Target{Kind: "ph", Value: c.SetPoint}, o)
+	if err != nil {
+		return nil, w, 0, err
+	}
+	if !d.Reached {
+		return nil, w, 0, fmt.Errorf("%s cannot hold pH %g: %s", c.Reagent.Name, c.SetPoint, strings.Join(d.Warnings, "; "))
+	}
+	return d.After.Result, d.After.Water, d.Dose, nil
 }
 
 // CyclePoint is the water at one number of cycles.
@@ -68,12 +114,19 @@ type CyclePoint struct {
 	Cycles  float64
 	Result  *Result
 	Indices Indices
-	Err     error
+	// Dose is the acid dose, mg/L of product, that holds the rule's pH set
+	// point at this cycle (0 without a set point or when none is needed).
+	Dose float64
+	Err  error
 }
+
+// maxCyclePoints bounds the points of a cycles table.
+const maxCyclePoints = 1000
 
 // CyclesResult is the answer of MaxCycles.
 type CyclesResult struct {
 	Profile LimitProfile
+	Rule    CarbonateRule
 	// MaxCycles is the highest number of cycles at which every limit of the
 	// profile holds; Limiting is the quantity that reaches its limit there.
 	// When no limit is reached up to the search's end, MaxCycles is that
@@ -104,7 +157,7 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 	if err != nil {
 		return nil, err
 	}
-	res := &CyclesResult{Profile: profile, MaxCycles: maxN}
+	res := &CyclesResult{Profile: profile, Rule: rule, MaxCycles: maxN}
 	eval := func(n float64) CyclePoint {
 		pt := CyclePoint{Cycles: n}
 		w, err := base.Concentrate(n)
@@ -112,7 +165,7 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 			pt.Err = err
 			return pt
 		}
-		pt.Result, pt.Err = sp.Speciate(w, rule.options(w, opt))
+		pt.Result, _, pt.Dose, pt.Err = rule.apply(sp, w, opt)
 		if pt.Err == nil {
 			pt.Indices, _ = sp.ClassicIndicesNoCCPP(pt.Result)
 		}
@@ -137,11 +190,31 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 		}
 		return worst, which, over
 	}
-	for n := 1.0; n <= maxN+1e-9; n += step {
+	if step < (maxN-1)/maxCyclePoints {
+		return nil, fmt.Errorf("a step of %g cycles makes more than %d points up to %g cycles", step, maxCyclePoints, maxN)
+	}
+	for k := 0; ; k++ {
+		n := 1 + float64(k)*step
+		if n > maxN+1e-9 {
+			break
+		}
 		res.Points = append(res.Points, eval(n))
 	}
 	if last := res.Points[len(res.Points)-1].Cycles; last < maxN-1e-9 {
 		res.Points = append(res.Points, eval(maxN))
+	}
+	// One activity model over the whole search (see Sweep).
+	if opt.Activity == Auto {
+		var ps []Point
+		for _, p := range res.Points {
+			ps = append(ps, Point{Result: p.Result})
+		}
+		if m, mixed := uniformModel(ps, opt); mixed {
+			opt.Activity = m
+			for k := range res.Points {
+				res.Points[k] = eval(res.Points[k].Cycles)
+			}
+		}
 	}
 	first := res.Points[0]
 	if first.Err != nil {

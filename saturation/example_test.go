@@ -83,5 +83,5 @@ func ExampleMaxCycles() {
 	}
 	fmt.Printf("at most %.1f cycles; limiting: %s\n", r.MaxCycles, r.Limiting)
 	// Output:
-	// at most 7.9 cycles; limiting: si:calcite
+	// at most 8.2 cycles; limiting: si:calcite
 }

@@ -54,18 +54,25 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	ca := a.Totals[water.Ca] * wpl // mol/L
 	alk := a.Alkalinity * wpl      // eq/L
 	var warnings []string
-	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
-		if alk > 0 {
-			ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk
-		}
+	if !(alk > minIndexAlkalinity) {
+		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %g mg/L as CaCO3", minIndexAlkalinity*1000*equivalentMassCaCO3)}
 	}
-	if !(ca > 0) || !(alk > 0) {
-		return ix, []string{"classic indices need calcium and a positive alkalinity"}
+	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
+		ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk
+	}
+	if !(ca > 0) {
+		return ix, []string{"the calcium carbonate indices need calcium"}
 	}
 	table := sp.model.table
-	ix.PHs = LangelierPHs(table, r.Temperature, r.PH, r.IonicStrength, ca, alk)
-	ix.LSI = r.PH - ix.PHs
-	ix.RSI = 2*ix.PHs - r.PH
+	if r.IonicStrength <= maxLangelierIonicStrength {
+		ix.PHs = LangelierPHs(table, r.Temperature, r.PH, r.IonicStrength, ca, alk)
+		ix.LSI = r.PH - ix.PHs
+		ix.RSI = 2*ix.PHs - r.PH
+	} else {
+		warnings = append(warnings, fmt.Sprintf(
+			"ionic strength %.3g mol/kg is beyond the Davies correction of the Langelier form (about %g): LSI, RSI and PSI are left out; the Stiff–Davis index and the calcite SI hold",
+			r.IonicStrength, maxLangelierIonicStrength))
+	}
 	taCaCO3 := alk * 1000 * equivalentMassCaCO3
 	pHeq := 1.465*math.Log10(taCaCO3) + 4.54
 	ix.PSI = 2*ix.PHs - pHeq
@@ -100,6 +107,16 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	}
 	return ix, warnings
 }
+
+// minIndexAlkalinity is the alkalinity, eq/L, below which the classic
+// indices are not computed (0.5 mg/L as CaCO3): they divide by it or take
+// its logarithm, and below the titration's detection they mean nothing.
+const minIndexAlkalinity = 1e-5
+
+// maxLangelierIonicStrength is the ionic strength, mol/kg, above which the
+// Davies-based Langelier form of Standard Methods 2330 is not applied
+// (about the upper limit of the Davies equation).
+const maxLangelierIonicStrength = 0.5
 
 // equivalentMassCaCO3 is the mass of CaCO3 per equivalent, g/eq
 // (100.086/2, IUPAC 2021 abridged atomic weights).

@@ -997,3 +997,35 @@ func ExampleSpeciate_brine() {
 	// barite SI +0.44
 	// celestite SI -0.76
 }
+
+// TestHaliteSaturation: with the Pitzer model, NaCl solutions reach halite
+// saturation near 6.15 mol/kg at 25 °C (CRC Handbook solubility of NaCl,
+// 36.0 g per 100 g water, from memory); tolerance 0.2 mol/kg.
+func TestHaliteSaturation(t *testing.T) {
+	build := func(x float64) water.Analysis {
+		return newWater("brine", 25, map[water.Component]float64{water.Na: x, water.Cl: x})
+	}
+	lo, hi := 4.0, 8.0
+	si := func(x float64) float64 {
+		r, err := Speciate(build(x), Options{Activity: Pitzer})
+		if err != nil {
+			t.Fatal(err)
+		}
+		v, ok := r.SI("halite")
+		if !ok {
+			t.Fatal("no halite SI")
+		}
+		return v
+	}
+	for i := 0; i < 40; i++ {
+		mid := (lo + hi) / 2
+		if si(mid) > 0 {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	if math.Abs(lo-6.15) > 0.2 {
+		t.Errorf("halite saturation at %.3f mol/kg NaCl, want 6.15 ± 0.2 (CRC Handbook, from memory)", lo)
+	}
+}

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"strings"
 	"testing"
 
 	"scalerisk/water"
@@ -141,4 +142,42 @@ func TestEdges(t *testing.T) {
 			t.Errorf("water with only %s: %v", c, err)
 		}
 	}
+}
+
+// TestRandomWatersFromAlkalinity takes the path real samples take: pH and
+// alkalinity measured, carbon unknown, pH 3–11. Each water converges with
+// closed mass balances, or fails with ErrInconsistent (pH and alkalinity
+// that do not fit) or ErrNoConvergence; below pH 4.5 carbon comes from air
+// CO2 with a warning, and no result claims a CO2 pressure above 3 atm
+// without saying so.
+func TestRandomWatersFromAlkalinity(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	sp := NewSpeciator(nil)
+	inconsistent := 0
+	for i := 0; i < 300; i++ {
+		a := randomWater(rng)
+		a.Totals[water.C], a.CarbonKnown, a.Measured[water.C] = 0, false, false
+		a.Alkalinity = 5e-3 * rng.Float64()
+		r, err := sp.Speciate(a, Options{})
+		if err != nil {
+			switch {
+			case errors.Is(err, ErrInconsistent):
+				inconsistent++
+			case errors.Is(err, ErrNoConvergence):
+				t.Errorf("water %d (pH %.2f): %v", i, a.PH, err)
+			default:
+				t.Errorf("water %d: unexplained error %v", i, err)
+			}
+			continue
+		}
+		checkBalance(t, r, DefaultModel())
+		warned := strings.Contains(strings.Join(r.Warnings, " "), "CO2")
+		if a.PH < acidPH && !warned {
+			t.Errorf("water %d: pH %.2f below %.1f without the air-CO2 note", i, a.PH, acidPH)
+		}
+		if r.LogPCO2 > implausibleLogPCO2 && !warned {
+			t.Errorf("water %d: log pCO2 %.2f without a warning", i, r.LogPCO2)
+		}
+	}
+	t.Logf("%d of 300 waters had pH and alkalinity that do not fit", inconsistent)
 }

@@ -27,6 +27,10 @@ const (
 	// conserves alkalinity (carbon follows): a water open to a gas phase,
 	// such as a cooling tower open to air.
 	FixedPCO2
+	// FixedPHAlkalinity holds pH at Options.PH and conserves alkalinity;
+	// inorganic carbon follows (CO2 exchanged with a gas phase): a tower
+	// whose pH is known from a relation with its alkalinity.
+	FixedPHAlkalinity
 )
 
 // LogPCO2Air is log10 of the CO2 partial pressure of air, atm, used when
@@ -273,7 +277,13 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	var fixedProblem problem
 	if hasPH {
 		if a.PH < 0 || a.PH > 14 {
-			return nil, fmt.Errorf("pH %.4g is outside 0–14", a.PH)
+			return nil, fmt.Errorf("%w: pH %.4g is outside 0–14", ErrInconsistent, a.PH)
+		}
+		if math.IsNaN(a.PHTemperature) || a.PHTemperature < minTemperature || a.PHTemperature > maxTemperature {
+			return nil, fmt.Errorf("%w: the pH was measured at %.4g °C, outside 0–%d °C", ErrInconsistent, a.PHTemperature, maxTemperature)
+		}
+		if a.PHTemperature > warnTemperature {
+			warnings = append(warnings, fmt.Sprintf("the pH was measured at %.4g °C, above 100 °C: constants are extrapolated", a.PHTemperature))
 		}
 		key := newFixKey(a, model)
 		reuse := sp.fixCached && sp.fix.key == key && !(opt.Carbonate == Closed && t == a.PHTemperature)
@@ -285,6 +295,17 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 			p := problem{t: a.PHTemperature, model: model, totals: totals, hRow: rowFixed,
 				lnaH: -a.PH * math.Ln10, cRow: rowAbsent}
 			switch {
+			case hasAlk && (!carbonKnown || carbon == 0) && a.PH < acidPH:
+				// Below the end point of the alkalinity titration the
+				// alkalinity holds no carbonate: it cannot fix carbon.
+				g, ok := m.gasIdx["CO2(g)"]
+				if !ok {
+					return nil, fmt.Errorf("%w: pH %.4g is below %.1f and no inorganic carbon is reported", ErrInconsistent, a.PH, acidPH)
+				}
+				p.cRow, p.gas, p.logP = rowGas, g, LogPCO2Air
+				warnings = append(warnings, fmt.Sprintf(
+					"pH %.3g is below %.1f, where alkalinity holds no carbonate: inorganic carbon is taken in equilibrium with air CO2 (10^%.1f atm); report DIC for a better answer",
+					a.PH, acidPH, LogPCO2Air))
 			case hasAlk && (!carbonKnown || carbon == 0):
 				p.cRow = rowAlk
 				p.alk = alk
@@ -301,14 +322,19 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 					q.cRow = rowAbsent
 					if s.solve(q, false) == nil {
 						if _, other, _ := carbonState(s); other >= alk {
-							return nil, fmt.Errorf("pH %.4g and alkalinity %.4g meq/kg are inconsistent: the non-carbonate species alone give %.4g meq/kg",
-								a.PH, 1000*alk, 1000*other)
+							return nil, fmt.Errorf("%w: pH %.4g and alkalinity %.4g meq/kg do not fit: the non-carbonate species alone give %.4g meq/kg",
+								ErrInconsistent, a.PH, 1000*alk, 1000*other)
 						}
 					}
 				}
 				return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
 			}
 			c1, alk1, co2 := carbonState(s)
+			if lp := logPCO2(s); p.cRow == rowAlk && lp > implausibleLogPCO2 {
+				warnings = append(warnings, fmt.Sprintf(
+					"pH and alkalinity put the water's CO2 at 10^%.2f atm, more than %.0f atm: check the pH and the alkalinity (or report DIC)",
+					lp, math.Pow(10, implausibleLogPCO2)))
+			}
 			if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
 				warnings = append(warnings, fmt.Sprintf(
 					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
@@ -326,7 +352,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 			sp.fixCached = true
 		}
 	} else if hasAlk && !carbonKnown && alk != 0 && opt.Carbonate != FixedPCO2 {
-		return nil, errors.New("pH is needed to find inorganic carbon from alkalinity (or report DIC)")
+		return nil, fmt.Errorf("%w: pH is needed to find inorganic carbon from alkalinity (or report DIC)", ErrInconsistent)
 	}
 
 	// Step 2: evaluate at t.
@@ -357,6 +383,15 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 			return nil, fmt.Errorf("fixed pH %.4g is outside 0–14", opt.PH)
 		}
 		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
+	case FixedPHAlkalinity:
+		if opt.PH < 0 || opt.PH > 14 {
+			return nil, fmt.Errorf("fixed pH %.4g is outside 0–14", opt.PH)
+		}
+		if !alkKnown {
+			return nil, errors.New("alkalinity is needed to hold pH and alkalinity together")
+		}
+		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
+		p.cRow, p.alk = rowAlk, alk
 	case FixedPCO2:
 		g, ok := m.gasIdx["CO2(g)"]
 		if !ok {
@@ -395,6 +430,40 @@ func (sp *Speciator) engine(model ActivityModel) (*Solver, error) {
 		sp.pitzer = newPitzerSolver(set)
 	}
 	return sp.pitzer, nil
+}
+
+// ErrInconsistent reports an analysis that cannot be speciated as given
+// (pH and alkalinity that do not fit together, a pH outside 0–14, a pH
+// temperature out of range): a fault of the input, not of the computation.
+var ErrInconsistent = errors.New("inconsistent analysis")
+
+// acidPH is the pH below which alkalinity cannot fix inorganic carbon: the
+// end point of the total-alkalinity titration (about 4.5; Standard Methods
+// 2320, from memory).
+const acidPH = 4.5
+
+// implausibleLogPCO2 is log10 of a CO2 partial pressure, atm, above which
+// a water's carbonate system (fixed from pH and alkalinity) is flagged:
+// 3 atm, beyond any open water at 1 atm total pressure.
+const implausibleLogPCO2 = 0.5
+
+// logPCO2 returns log10 of the CO2 partial pressure, atm, in equilibrium
+// with the solver's current solution (NaN without carbon or CO2(g)).
+func logPCO2(s *Solver) float64 {
+	m := s.m
+	g, ok := m.gasIdx["CO2(g)"]
+	if !ok {
+		return math.NaN()
+	}
+	gp := &m.gases[g]
+	v := gp.nuW*s.lnaw/math.Ln10 - evalLogK(gp.logK, s.p.t)
+	for _, nt := range gp.nu {
+		if !s.live[nt.j] {
+			return math.NaN()
+		}
+		v += nt.coef * (s.lnm[nt.j] + s.lng[nt.j]) / math.Ln10
+	}
+	return v
 }
 
 // carbonState returns total inorganic carbon (mol/kg), alkalinity (eq/kg)
@@ -550,6 +619,11 @@ func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
 	}
 	r.Analysis = b
 	r.Temperature = t
+	if r.LogPCO2 > implausibleLogPCO2 && !strings.Contains(strings.Join(r.Warnings, " "), "CO2") {
+		r.Warnings = append(r.Warnings, fmt.Sprintf(
+			"the water's CO2 partial pressure is 10^%.2f atm at %.4g °C, above %.0f atm: a sealed system holds it only under pressure; open to air the CO2 would escape (try the air carbonate mode)",
+			r.LogPCO2, t, math.Pow(10, implausibleLogPCO2)))
+	}
 	if lim, ok := modelLimit[r.Activity]; ok && r.IonicStrength > lim {
 		advice := "a Pitzer model suits brines"
 		if r.Activity == Pitzer {

@@ -288,8 +288,8 @@ func TestPureNaCl(t *testing.T) {
 	if math.Abs(r.PH-7.0) > 0.05 {
 		t.Errorf("pH of neutral NaCl solution = %.3f, want about 7.0 (charge balance, pKw 13.995)", r.PH)
 	}
-	if len(r.Minerals) != 0 {
-		t.Errorf("a NaCl-only water has minerals %v; none of the table's minerals apply", r.Minerals)
+	if len(r.Minerals) != 1 || r.Minerals[0].Name != "halite" || r.Minerals[0].SI > -2 {
+		t.Errorf("a 0.5 mol/kg NaCl water has minerals %v; want only halite, far undersaturated", r.Minerals)
 	}
 	// Truesdell–Jones γ± of NaCl at 0.5 mol/kg: 0.681 (Robinson & Stokes
 	// 1959, from memory); the model is fitted to such data, tolerance 0.02.

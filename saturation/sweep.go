@@ -118,6 +118,52 @@ func Sweep(a water.Analysis, x Axis, y *Axis, opt Options) ([]Point, error) {
 	if y != nil {
 		ys = y.Values
 	}
+	points := sweepPoints(sp, base, partner, x, y, ys, opt)
+	if m, mixed := uniformModel(points, opt); mixed {
+		// One model across the sweep: the automatic choice would switch
+		// models between points and put a step into every curve.
+		o := opt
+		o.Activity = m
+		points = sweepPoints(sp, base, partner, x, y, ys, o)
+	}
+	return points, nil
+}
+
+// uniformModel reports whether the automatic choice gave points of one
+// sweep different activity models, and returns the one for the most
+// concentrated of them (Pitzer over Truesdell–Jones over Davies).
+func uniformModel(points []Point, opt Options) (ActivityModel, bool) {
+	if opt.Activity != Auto {
+		return opt.Activity, false
+	}
+	best, seen := Auto, map[ActivityModel]bool{}
+	for _, p := range points {
+		if p.Result == nil {
+			continue
+		}
+		seen[p.Result.Activity] = true
+		if rank(p.Result.Activity) > rank(best) {
+			best = p.Result.Activity
+		}
+	}
+	return best, len(seen) > 1
+}
+
+// rank orders the activity models by the ionic strength they serve.
+func rank(m ActivityModel) int {
+	switch m {
+	case Davies:
+		return 1
+	case TruesdellJones, BDot:
+		return 2
+	case Pitzer:
+		return 3
+	}
+	return 0
+}
+
+// sweepPoints evaluates every point of a sweep.
+func sweepPoints(sp *Speciator, base, partner water.Analysis, x Axis, y *Axis, ys []float64, opt Options) []Point {
 	points := make([]Point, 0, len(x.Values)*len(ys))
 	for _, yv := range ys {
 		for _, xv := range x.Values {
@@ -137,7 +183,7 @@ func Sweep(a water.Analysis, x Axis, y *Axis, opt Options) ([]Point, error) {
 			points = append(points, pt)
 		}
 	}
-	return points, nil
+	return points
 }
 
 // applySettings transforms the fixed water by the settings of one sweep

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 
@@ -40,7 +41,12 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			failures := 0
 			for _, f := range files {
 				for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
-					if a.Err != nil && !a.BadInput {
+					switch {
+					case a.Err == nil:
+					case errors.Is(a.Err, saturation.ErrInconsistent):
+						fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
+						problems++
+					case !a.BadInput:
 						fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
 						failures++
 					}

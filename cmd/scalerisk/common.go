@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
 
 	"github.com/spf13/cobra"
@@ -52,7 +53,7 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	if err != nil {
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(err)
 	}
-	if !(c.flow >= 0) {
+	if !(c.flow >= 0) || math.IsInf(c.flow, 0) {
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--flow %g: want a flow of 0 or more m³/h", c.flow))
 	}
 	opt := saturation.Options{Activity: activity, Flow: c.flow}

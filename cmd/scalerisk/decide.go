@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"math"
 	"os"
 	"strings"
 
@@ -14,10 +15,10 @@ import (
 	"scalerisk/water"
 )
 
-// forEachGood runs fn on every good record of the inputs and counts the
-// failures it reports on stderr.
-func forEachGood(files []fileRecords, stderr io.Writer, fn func(file string, rec water.Record) error) int {
-	failures := 0
+// forEachGood runs fn on every good record of the inputs and reports each
+// error on stderr: an inconsistent analysis counts as bad input, anything
+// else as a failure.
+func forEachGood(files []fileRecords, stderr io.Writer, fn func(file string, rec water.Record) error) (failures, problems int) {
 	for _, f := range files {
 		for _, rec := range f.records {
 			if rec.Err != nil {
@@ -25,11 +26,15 @@ func forEachGood(files []fileRecords, stderr io.Writer, fn func(file string, rec
 			}
 			if err := fn(f.name, rec); err != nil {
 				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, rec.Line, err)
-				failures++
+				if errors.Is(err, saturation.ErrInconsistent) {
+					problems++
+				} else {
+					failures++
+				}
 			}
 		}
 	}
-	return failures
+	return failures, problems
 }
 
 func newDoseCmd(stdin io.Reader) *cobra.Command {
@@ -62,10 +67,10 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return badInput(err)
 			}
-			if rule.A != 0 {
-				return badInput(errors.New("--carbonate natural or relation= applies to cycles; dose takes closed, air or ph=VALUE"))
+			if rule.A != 0 || rule.SetPoint != 0 {
+				return badInput(errors.New("--carbonate for dose: closed or air (natural, relation= and ph= are rules of cycles)"))
 			}
-			opt.Carbonate, opt.PH = rule.Mode, rule.PH
+			opt.Carbonate = rule.Mode
 			if strength != 0 && !(strength > 0 && strength <= 100) {
 				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
 			}
@@ -74,7 +79,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 				return err
 			}
 			var out []reports.DoseOutcome
-			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
 				out = append(out, reports.DoseOutcome{Name: rec.Name, Result: d, Flow: opt.Flow, Err: err})
 				return err
@@ -82,7 +87,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if err := reports.WriteDoses(cmd.OutOrStdout(), format, out); err != nil {
 				return &exitError{code: exitInternal, err: err}
 			}
-			return finish(problems, failures)
+			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
@@ -90,7 +95,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&reagent, "reagent", "", "reagent by formula: "+reagentNames())
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&target, "target", "", "target: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE or si:MINERAL=VALUE")
-	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system after dosing: closed (CO2 stays), air or ph=VALUE")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system after dosing: closed (the CO2 an acid frees stays) or air")
 	cmd.MarkFlagRequired("reagent")
 	cmd.MarkFlagRequired("target")
 	return cmd
@@ -107,16 +112,17 @@ func reagentNames() string {
 
 func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
-	var limits, carbonate string
+	var limits, carbonate, reagent string
 	var maxN, step, evaporation float64
 	cmd := &cobra.Command{
 		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate closed|air|ph=V|natural|relation=A,B]",
 		Short: "Highest cycles of concentration of a makeup water under a limit profile, and the limiting mineral",
 		Long: "cycles concentrates each makeup water by 1 to --max cycles (conservative ions times N),\n" +
-			"finds its carbonate state by --carbonate — closed (CO2 stays), air (equilibrium with air\n" +
-			"CO2, as in a tower), ph=VALUE (acid-controlled pH), natural (pH = 1.465·log10(TA) + 4.54,\n" +
-			"the relation of untreated towers; common practice) or relation=A,B (your tower's own\n" +
-			"pH = A·log10(TA) + B) — and returns the highest cycles at which every limit of the profile\n" +
+			"finds its carbonate state by --carbonate — natural (the default: pH = 1.465·log10(TA) + 4.54,\n" +
+			"the relation of untreated towers, alkalinity conserved; common practice), relation=A,B (your\n" +
+			"tower's own pH = A·log10(TA) + B), air (equilibrium with air CO2), ph=VALUE (acid control:\n" +
+			"the dose of --reagent that holds the set point, open to air, with its sulfate or chloride)\n" +
+			"or closed (CO2 stays: a sealed system) — and returns the highest cycles at which every limit of the profile\n" +
 			"holds, naming the limiting mineral. Profiles: no-inhibitor and inhibitor (data/limits.csv,\n" +
 			"each limit with its source), or a CSV of your own (columns quantity, max, source).\n" +
 			"Temperature: the sample's, or --temperature (use the hottest heat-exchanger skin).\n\n" + reports.Caution,
@@ -133,18 +139,28 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return badInput(err)
 			}
+			if rule.SetPoint != 0 {
+				r, err := water.LookupReagent(reagent)
+				if err != nil {
+					return badInput(err)
+				}
+				if !(r.AlkalinityPerMol < 0) {
+					return badInput(fmt.Errorf("--reagent %s cannot hold a pH set point: it is not an acid", r.Name))
+				}
+				rule = rule.WithReagent(r)
+			}
 			if !(maxN > 1 && maxN <= 100) {
 				return badInput(fmt.Errorf("--max %g: want more than 1 and at most 100 cycles", maxN))
 			}
-			if !(step > 0) || !(evaporation >= 0) {
-				return badInput(errors.New("--step must be positive and --evaporation 0 or more"))
+			if !(step >= (maxN-1)/1000) || math.IsInf(step, 0) || !(evaporation >= 0) || math.IsInf(evaporation, 0) {
+				return badInput(fmt.Errorf("--step must be at least (max−1)/1000 = %g and --evaporation a finite 0 or more", (maxN-1)/1000))
 			}
 			files, problems, err := c.read(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
 			}
 			var out []reports.CyclesOutcome
-			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
 				out = append(out, reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Result: r, Evaporation: evaporation, Err: err})
 				return err
@@ -152,13 +168,14 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if err := reports.WriteCycles(cmd.OutOrStdout(), format, out); err != nil {
 				return &exitError{code: exitInternal, err: err}
 			}
-			return finish(problems, failures)
+			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
 	f := cmd.Flags()
 	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
-	f.StringVar(&carbonate, "carbonate", "closed", "carbonate rule: closed, air, ph=VALUE, natural or relation=A,B")
+	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
+	f.StringVar(&reagent, "reagent", "h2so4", "acid that holds a ph= set point: h2so4 or hcl")
 	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
 	f.Float64Var(&step, "step", 0.5, "step of the cycles table")
 	f.Float64Var(&evaporation, "evaporation", 0, "evaporation of the tower, m³/h, to give make-up and blowdown")
@@ -206,10 +223,10 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 				return badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
 			}
 			rule, err := saturation.ParseCarbonateRule(carbonate)
-			if err != nil || rule.A != 0 {
-				return badInput(errors.New("--carbonate: closed, air or ph=VALUE"))
+			if err != nil || rule.A != 0 || rule.SetPoint != 0 {
+				return badInput(errors.New("--carbonate for sweep: closed or air"))
 			}
-			opt.Carbonate, opt.PH = rule.Mode, rule.PH
+			opt.Carbonate = rule.Mode
 			axes := make([]saturation.Axis, len(vary))
 			for i, v := range vary {
 				if axes[i], err = parseAxis(v); err != nil {
@@ -223,7 +240,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 					}
 					axes[i].Reagent, axes[i].Strength = r, strength
 				case saturation.VaryFraction:
-					pw, err := firstSample(partner, "", stdin, ropt)
+					pw, err := firstSample(partner, stdin, ropt)
 					if err != nil {
 						return err
 					}
@@ -232,6 +249,9 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			}
 			var y *saturation.Axis
 			if len(axes) == 2 {
+				if axes[0].Var == axes[1].Var {
+					return badInput(fmt.Errorf("--vary %s is given twice", axes[0].Var))
+				}
 				y = &axes[1]
 			}
 			files, problems, err := c.read(cmd, args, stdin, ropt)
@@ -239,7 +259,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 				return err
 			}
 			var out []reports.SweepOutcome
-			failures := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
+			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
 				pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
 				out = append(out, reports.SweepOutcome{Name: rec.Name, X: axes[0], Y: y, Points: pts, Err: err})
 				return err
@@ -247,7 +267,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if err := reports.WriteSweeps(cmd.OutOrStdout(), format, out); err != nil {
 				return &exitError{code: exitInternal, err: err}
 			}
-			return finish(problems, failures)
+			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
@@ -256,7 +276,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
-	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed, air or ph=VALUE")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed or air")
 	return cmd
 }
 
@@ -283,28 +303,39 @@ func parseAxis(s string) (saturation.Axis, error) {
 	return saturation.Axis{Var: v, Values: saturation.Range(from, to, int(n))}, nil
 }
 
-// firstSample returns the sample named name of a file (the first good one
-// when name is empty).
-func firstSample(file, name string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+// firstSample returns the first good sample of a file, for --partner.
+func firstSample(file string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
 	if file == "" {
 		return water.Analysis{}, badInput(errors.New("a blend needs a second water (--partner FILE)"))
 	}
-	records, probs, err := readInput(input{name: file}, stdin, ropt)
+	return pickSample(input{name: file}, "", stdin, ropt)
+}
+
+// pickSample returns the good sample named name of an input: the first one
+// when name is empty, the second when name is "#2".
+func pickSample(in input, name string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+	records, probs, err := readInput(in, stdin, ropt)
 	if err != nil {
 		return water.Analysis{}, badInput(err)
 	}
 	if len(probs) > 0 {
 		return water.Analysis{}, badInput(probs[0])
 	}
+	seen := 0
 	for _, r := range records {
-		if r.Err == nil && (name == "" || r.Name == name) {
+		if r.Err != nil {
+			continue
+		}
+		seen++
+		if (name == "" && seen == 1) || (name == "#2" && seen == 2) || r.Name == name {
 			return r.Analysis, nil
 		}
 	}
-	if name != "" {
-		return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", file, name))
+	switch name {
+	case "", "#2":
+		return water.Analysis{}, badInput(fmt.Errorf("%s: not enough good samples", in.name))
 	}
-	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample", file))
+	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", in.name, name))
 }
 
 func newBlendCmd(stdin io.Reader) *cobra.Command {
@@ -312,13 +343,14 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 	var fraction float64
 	var samples []string
 	cmd := &cobra.Command{
-		Use:   "blend A.csv B.csv --fraction F [--sample NAME_A] [--sample NAME_B]",
+		Use:   "blend A.csv B.csv|--demo --fraction F [--sample NAME_A] [--sample NAME_B]",
 		Short: "Mix two waters and assess the blend (computed from totals and re-speciated)",
 		Long: "blend mixes the first sample of A.csv (or --sample NAME) with the first sample of B.csv\n" +
 			"(or a second --sample NAME) by volume, F being the share of the first water, and assesses\n" +
+			"the blend like assess. With one input (a file or --demo) the two waters are its first two\n" +
+			"samples, or the two named by --sample. " +
 			"the blend like assess. The blend is computed from the totals and re-speciated, never by\n" +
 			"averaging indices.\n\n" + reports.Caution,
-		Args: cobra.ExactArgs(2),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, opt, ropt, err := c.setup(cmd)
 			if err != nil {
@@ -328,12 +360,25 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 				return badInput(fmt.Errorf("--fraction %g: want a share from 0 to 1", fraction))
 			}
 			if len(samples) > 2 {
-				return badInput(errors.New("--sample: at most two names, one per file"))
+				return badInput(errors.New("--sample: at most two names, one per water"))
 			}
+			// Two inputs (the demo counts as one), or one input holding
+			// both waters.
+			inputs := c.inputs(args)
 			names := append(samples, "", "")[:2]
+			switch len(inputs) {
+			case 1:
+				inputs = append(inputs, inputs[0])
+				if names[1] == "" {
+					names[1] = "#2" // the second sample of the same file
+				}
+			case 2:
+			default:
+				return badInput(fmt.Errorf("blend takes two waters: two files, or one file (or --demo) with --sample twice; got %d inputs", len(inputs)))
+			}
 			var ws []water.Analysis
-			for i, file := range args {
-				w, err := firstSample(file, names[i], stdin, ropt)
+			for i, in := range inputs {
+				w, err := pickSample(in, names[i], stdin, ropt)
 				if err != nil {
 					return err
 				}

@@ -149,6 +149,60 @@ func TestBlendCommand(t *testing.T) {
 		}
 	}
 	mustRun(t, 2, "", "blend", demoCSV, demoCSV, "--fraction", "1.5")
-	mustRun(t, 2, "", "blend", demoCSV)
+	mustRun(t, 2, "", "blend", demoCSV, demoCSV, demoCSV)
 	mustRun(t, 2, "", "blend", demoCSV, demoCSV, "--sample", "nobody")
+	// One input: its first two samples (the demo serves every command).
+	one := decodeSamples(t, mustRun(t, 0, "", "blend", "--demo", "--fraction", "0.5", "--format", "json").stdout)[0]
+	if !strings.Contains(one["name"].(string), "makeup") || !strings.Contains(one["name"].(string), "tower") {
+		t.Errorf("blend --demo: name %v, want the makeup and the tower", one["name"])
+	}
+}
+
+// TestDecisionInputErrors: impossible settings are bad input (exit 2), never
+// a hang or an internal failure.
+func TestDecisionInputErrors(t *testing.T) {
+	mustRun(t, 2, "", "cycles", "--demo", "--step", "1e-300", "--max", "2")
+	mustRun(t, 2, "", "cycles", "--demo", "--carbonate", "relation=1e308,1")
+	mustRun(t, 2, "", "cycles", "--demo", "--carbonate", "ph=7.5", "--reagent", "naoh")
+	mustRun(t, 2, "", "assess", "--demo", "--flow", "Inf")
+	mustRun(t, 2, "", "sweep", "--demo", "--vary", "temperature=20:30:2", "--vary", "temperature=40:50:2")
+	mustRun(t, 2, "", "dose", "--demo", "--reagent", "h2so4", "--target", "ph=7", "--carbonate", "natural")
+	// pH and alkalinity that cannot fit (pH 11.5 with 5 mg/L alkalinity):
+	// located on stderr, exit 2.
+	bad := "name,temperature [C],pH,Ca [mg/L],Na [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\nstrange,25,11.5,10,20,30,5\n"
+	r := mustRun(t, 2, bad, "assess", "-")
+	if !strings.Contains(r.stderr, "do not fit") {
+		t.Errorf("stderr %q lacks the reason", r.stderr)
+	}
+	if r := runCLI(t, "", "minerals", "--help"); !strings.Contains(r.stdout, "advisory") {
+		t.Errorf("minerals --help lacks the caution")
+	}
+}
+
+// TestAcidWater: a pH 3 water with no alkalinity is computed with carbon in
+// equilibrium with air CO2, says so, and gives no classic indices (they need
+// alkalinity) rather than absurd ones.
+func TestAcidWater(t *testing.T) {
+	acid := "name,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],Fe [mg/L],SO4 [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\n" +
+		"Invented pit water,20,3.0,200,80,20,200,1500,10,0\n"
+	r := mustRun(t, 0, acid, "assess", "-", "--format", "json")
+	s := decodeSamples(t, r.stdout)[0]
+	w := strings.Join(func() []string {
+		var out []string
+		for _, x := range s["warnings"].([]any) {
+			out = append(out, x.(string))
+		}
+		return out
+	}(), " ")
+	if !strings.Contains(w, "air CO2") {
+		t.Errorf("warnings %q lack the air-CO2 note", w)
+	}
+	if lp := s["log_pco2"].(float64); math.Abs(lp+3.4) > 0.01 {
+		t.Errorf("log pCO2 %g, want −3.4 (air)", lp)
+	}
+	if ix, ok := s["indices"]; ok {
+		if _, has := ix.(map[string]any)["larson_skold"]; has {
+			t.Errorf("Larson–Skold given for a water without alkalinity: %v", ix)
+		}
+	}
 }

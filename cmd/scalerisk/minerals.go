@@ -17,7 +17,10 @@ func newMineralsCmd() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "minerals",
 		Short: "List the minerals of the thermodynamic table with log K at 25 °C and sources",
-		Args:  cobra.NoArgs,
+		Long: "minerals lists every mineral of the thermodynamic table (data/thermo.csv, or with\n" +
+			"--thermo your additions) with its formula, reaction, log K at 25 °C, temperature function,\n" +
+			"valid range and published source.\n\n" + reports.Caution,
+		Args: cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, err := reports.ParseFormat(o.format)
 			if err != nil {
