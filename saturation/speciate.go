@@ -635,3 +635,32 @@ func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
 	}
 	return r
 }
+
+// ParseCarbonateMode parses how a water is evaluated: "closed" (carbon and
+// alkalinity conserved), "air" (equilibrium with air CO2), "pco2=LOG" (with
+// CO2 at 10^LOG atm), "charge" (pH from the charge balance) or "ph=VALUE"
+// (pH held, carbon conserved). It returns the options' carbonate fields.
+func ParseCarbonateMode(s string) (mode CarbonateMode, pH, logPCO2 float64, err error) {
+	s = strings.ToLower(strings.TrimSpace(s))
+	switch {
+	case s == "" || s == "closed":
+		return Closed, 0, 0, nil
+	case s == "air":
+		return FixedPCO2, 0, LogPCO2Air, nil
+	case s == "charge":
+		return ChargeBalance, 0, 0, nil
+	case strings.HasPrefix(s, "pco2="):
+		v, err := water.ParseNumber(strings.TrimPrefix(s, "pco2="))
+		if err != nil || v < -8 || v > 2 || v == 0 {
+			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want pco2=LOG10(atm), e.g. pco2=-3.4, from −8 to 2 (not 0)", s)
+		}
+		return FixedPCO2, 0, v, nil
+	case strings.HasPrefix(s, "ph="):
+		v, err := water.ParseNumber(strings.TrimPrefix(s, "ph="))
+		if err != nil || v < 0 || v > 14 {
+			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want ph= a pH from 0 to 14", s)
+		}
+		return FixedPH, v, 0, nil
+	}
+	return 0, 0, 0, fmt.Errorf("unknown carbonate mode %q (want closed, air, pco2=LOG, charge or ph=VALUE)", s)
+}

@@ -2,6 +2,7 @@ package water
 
 import (
 	"fmt"
+	"io"
 	"strings"
 	"sync"
 
@@ -129,3 +130,7 @@ func normalizeName(s string) string {
 	}
 	return b.String()
 }
+
+// OpenDemo opens the embedded demo file (data/demo.csv): three invented
+// waters of a fictional plant, for --demo.
+func OpenDemo() (io.ReadCloser, error) { return data.FS.Open("demo.csv") }

@@ -13,6 +13,7 @@ import (
 
 func newAssessCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
+	var carbonate string
 	cmd := &cobra.Command{
 		Use:   "assess [FILE...|-]",
 		Short: "Data quality, speciation, saturation indices, classic indices and scale that could form",
@@ -22,7 +23,8 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			"index of every mineral with a plain-word risk band, the classic indices (Langelier, Ryznar,\n" +
 			"Puckorius, Stiff–Davis, Larson–Skold, CCPP) and how much scale could form.\n\n" +
 			"pH and alkalinity at the pH measurement temperature fix inorganic carbon; at any other\n" +
-			"temperature carbon and alkalinity are conserved and pH is recomputed (closed system).\n\n" +
+			"temperature carbon and alkalinity are conserved and pH is recomputed (closed system),\n" +
+			"unless --carbonate says air, pco2=LOG, charge or ph=VALUE.\n\n" +
 			"Values below the detection limit (\"<0.1\") are taken as half the limit unless\n" +
 			"--below-detection says zero or limit.\n\n" +
 			"Exit status: 0 all samples computed; 2 bad input (the good samples are still\n" +
@@ -31,6 +33,9 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			format, opt, ropt, err := c.setup(cmd)
 			if err != nil {
 				return err
+			}
+			if opt.Carbonate, opt.PH, opt.LogPCO2, err = saturation.ParseCarbonateMode(carbonate); err != nil {
+				return badInput(err)
 			}
 			stderr := cmd.ErrOrStderr()
 			files, problems, err := c.read(cmd, args, stdin, ropt)
@@ -60,5 +65,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 		},
 	}
 	c.register(cmd)
+	cmd.Flags().StringVar(&carbonate, "carbonate", "closed",
+		"carbonate system at the evaluation temperature: closed, air, pco2=LOG10(atm), charge (pH from charge balance) or ph=VALUE")
 	return cmd
 }

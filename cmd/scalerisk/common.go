@@ -9,7 +9,6 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"scalerisk/data"
 	"scalerisk/reports"
 	"scalerisk/saturation"
 	"scalerisk/water"
@@ -158,7 +157,7 @@ func readInput(in input, stdin io.Reader, opt water.ReadOptions) ([]water.Record
 	var r io.Reader
 	switch {
 	case in.embedded:
-		f, err := data.FS.Open("demo.csv")
+		f, err := water.OpenDemo()
 		if err != nil {
 			return nil, nil, err
 		}

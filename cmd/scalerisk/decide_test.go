@@ -206,3 +206,26 @@ func TestAcidWater(t *testing.T) {
 		}
 	}
 }
+
+// TestAssessCarbonateModes: the evaluation modes of the engine reach the
+// command line — air (log pCO2 −3.4), a given pCO2, charge balance and a
+// fixed pH.
+func TestAssessCarbonateModes(t *testing.T) {
+	get := func(mode, key string) float64 {
+		s := decodeSamples(t, mustRun(t, 0, "", "assess", "--demo", "--carbonate", mode, "--format", "json").stdout)[0]
+		return s[key].(float64)
+	}
+	if v := get("air", "log_pco2"); math.Abs(v+3.4) > 1e-3 {
+		t.Errorf("air: log_pco2 %g, want −3.4", v)
+	}
+	if v := get("pco2=-2", "log_pco2"); math.Abs(v+2) > 1e-3 {
+		t.Errorf("pco2=-2: log_pco2 %g, want −2", v)
+	}
+	if v := get("ph=7.5", "ph"); v != 7.5 {
+		t.Errorf("ph=7.5: ph %g", v)
+	}
+	if v := get("charge", "charge_balance_percent"); math.Abs(v) > 5 {
+		t.Errorf("charge: the lab ion balance %g %% is reported as read", v)
+	}
+	mustRun(t, 2, "", "assess", "--demo", "--carbonate", "sealed")
+}
