@@ -76,7 +76,7 @@ func (c CarbonateRule) options(w water.Analysis, opt Options) (Options, error) {
 	o := opt
 	o.Carbonate = c.Mode
 	if c.A != 0 {
-		ta := w.Alkalinity * w.WaterPerLitre * 1000 * equivalentMassCaCO3
+		ta := w.Alkalinity * w.WaterPerLitre * 1000 * water.EquivalentMassCaCO3
 		if !(ta > 0) {
 			return o, fmt.Errorf("%w: the %s rule needs a positive alkalinity", ErrInconsistent, c.Name)
 		}

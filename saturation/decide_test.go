@@ -47,7 +47,7 @@ func TestDoseSulfuricAcid(t *testing.T) {
 	}
 	active := res.Dose * res.Strength / 100 // mg/L of 100 % H2SO4
 	wpl := b.Water.WaterPerLitre
-	dAlk := (b.Water.Alkalinity - aft.Water.Alkalinity) * wpl * 1000 * equivalentMassCaCO3
+	dAlk := (b.Water.Alkalinity - aft.Water.Alkalinity) * wpl * 1000 * water.EquivalentMassCaCO3
 	dSO4 := (aft.Water.Totals[water.S] - b.Water.Totals[water.S]) * wpl * 96.06 * 1000
 	if math.Abs(dAlk/active-1.0205) > 0.01 {
 		t.Errorf("alkalinity removed per mg/L H2SO4 = %.4f, want 1.02 ± 0.01 (Power Plant Engineering Table 15-3)", dAlk/active)

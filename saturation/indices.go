@@ -55,7 +55,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	alk := a.Alkalinity * wpl      // eq/L
 	var warnings []string
 	if !(alk > minIndexAlkalinity) {
-		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %g mg/L as CaCO3", minIndexAlkalinity*1000*equivalentMassCaCO3)}
+		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %g mg/L as CaCO3", minIndexAlkalinity*1000*water.EquivalentMassCaCO3)}
 	}
 	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
 		ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk
@@ -73,14 +73,14 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 			"ionic strength %.3g mol/kg is beyond the Davies correction of the Langelier form (about %g): LSI, RSI and PSI are left out; the Stiff–Davis index and the calcite SI hold",
 			r.IonicStrength, maxLangelierIonicStrength))
 	}
-	taCaCO3 := alk * 1000 * equivalentMassCaCO3
+	taCaCO3 := alk * 1000 * water.EquivalentMassCaCO3
 	pHeq := 1.465*math.Log10(taCaCO3) + 4.54
 	ix.PSI = 2*ix.PHs - pHeq
 	tds := a.Quality().TDSCalculated
 	if !math.IsNaN(a.MeasuredTDS) && a.MeasuredTDS > 0 {
 		tds = a.MeasuredTDS
 	}
-	ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*equivalentMassCaCO3, taCaCO3)
+	ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*water.EquivalentMassCaCO3, taCaCO3)
 	// Stiff–Davis with this engine's γ.
 	var gCa, gHCO3 float64
 	for _, s := range r.Species {
@@ -103,7 +103,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	if err != nil {
 		warnings = append(warnings, fmt.Sprintf("CCPP not computed: %v", err))
 	} else {
-		ix.CCPP = ccpp * wpl * 1000 * 2 * equivalentMassCaCO3
+		ix.CCPP = ccpp * wpl * 1000 * 2 * water.EquivalentMassCaCO3
 	}
 	return ix, warnings
 }
@@ -117,10 +117,6 @@ const minIndexAlkalinity = 1e-5
 // Davies-based Langelier form of Standard Methods 2330 is not applied
 // (about the upper limit of the Davies equation).
 const maxLangelierIonicStrength = 0.5
-
-// equivalentMassCaCO3 is the mass of CaCO3 per equivalent, g/eq
-// (100.086/2, IUPAC 2021 abridged atomic weights).
-const equivalentMassCaCO3 = 50.043
 
 // carbonateConstants returns pK2 of carbonic acid and pKs of calcite at
 // t °C from the table (−log K of HCO3⁻ = H⁺ + CO3²⁻ and of calcite

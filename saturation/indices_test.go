@@ -101,7 +101,7 @@ func TestCCPP(t *testing.T) {
 	if !(ix.CCPP > 0) {
 		t.Fatalf("CCPP of a supersaturated water = %g, want positive", ix.CCPP)
 	}
-	x := ix.CCPP / (1000 * 2 * equivalentMassCaCO3) / r.Analysis.WaterPerLitre
+	x := ix.CCPP / (1000 * 2 * water.EquivalentMassCaCO3) / r.Analysis.WaterPerLitre
 	after := sp.model.removeMinerals(r.Analysis, []int{sp.model.mineralIdx["calcite"]}, []float64{x})
 	r2, err := sp.Speciate(after, Options{AtTemperature: true, Temperature: r.Temperature, Activity: r.Activity})
 	if err != nil {

@@ -187,7 +187,7 @@ func (r Reagent) MolPerMg(strength float64) float64 {
 // References: "Power Plant Engineering" Table 15-3 (factors for the pure
 // reagents); equivalent mass of CaCO3 50.043 g/eq.
 func (r Reagent) AlkalinityFactor(strength float64) float64 {
-	return r.AlkalinityPerMol * equivalentMassCaCO3 * 1000 * r.MolPerMg(strength)
+	return r.AlkalinityPerMol * EquivalentMassCaCO3 * 1000 * r.MolPerMg(strength)
 }
 
 // IonFactor returns the mg/L of component c, weighed as its ion

@@ -38,7 +38,7 @@ func TestReagentTable15_3(t *testing.T) {
 		}
 	}
 	co2 := rgMust(t, "co2")
-	if got := co2.CarbonPerMol * equivalentMassCaCO3 * 1000 * co2.MolPerMg(100); math.Abs(got-1.14) > tol {
+	if got := co2.CarbonPerMol * EquivalentMassCaCO3 * 1000 * co2.MolPerMg(100); math.Abs(got-1.14) > tol {
 		t.Errorf("acidity factor(co2) = %.4f, want 1.14 ± %g (%s)", got, tol, src)
 	}
 	if co2.AlkalinityFactor(100) != 0 {

@@ -260,7 +260,7 @@ func TestDose(t *testing.T) {
 	}
 	// 50 mg/L of 93 % acid removes 50 × 0.949 = 47.45 mg/L as CaCO3
 	// (practice.md §6, COMPUTED).
-	if got := (a.Alkalinity - b.Alkalinity) * a.WaterPerLitre * equivalentMassCaCO3 * 1000; math.Abs(got-47.45) > 0.05 {
+	if got := (a.Alkalinity - b.Alkalinity) * a.WaterPerLitre * EquivalentMassCaCO3 * 1000; math.Abs(got-47.45) > 0.05 {
 		t.Errorf("alkalinity removed by 50 mg/L of 93 %% H2SO4 = %.3f mg/L as CaCO3, want 47.45 ± 0.05 (practice.md §6)", got)
 	}
 	if !qtHasFlag(b.Warnings, "caution (sulfuric acid)") || !qtHasFlag(b.Warnings, "licensed practice") || !qtHasFlag(b.Warnings, "gypsum") {

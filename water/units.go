@@ -173,9 +173,10 @@ func (u Unit) ToMicroSiemens(v float64) float64 { return v * u.scale }
 // ToKgPerLitre converts a density v in unit u to kg/L.
 func (u Unit) ToKgPerLitre(v float64) float64 { return v * u.scale }
 
-// equivalentMassCaCO3 is the mass of CaCO3 per equivalent, g/eq:
+// EquivalentMassCaCO3 is the mass of CaCO3 per equivalent, g/eq (mg per
+// meq): the factor of the trade's "mg/L as CaCO3";
 // 100.086/2 from IUPAC 2021 abridged atomic weights.
-const equivalentMassCaCO3 = 50.043
+const EquivalentMassCaCO3 = 50.043
 
 // Amount converts a concentration v of analyte a in unit u into moles of
 // a's component (equivalents for alkalinity) per u.Basis. "as CaCO3" counts
@@ -203,7 +204,7 @@ func (u Unit) Amount(a Analyte, v float64, forms *AnalyteTable) (float64, error)
 		return x / a.FormMass * a.PerForm, nil
 	}
 	if strings.EqualFold(strings.ReplaceAll(u.As, " ", ""), "CaCO3") {
-		eq := x / equivalentMassCaCO3
+		eq := x / EquivalentMassCaCO3
 		if a.IsAlkalinity() {
 			return eq, nil
 		}
