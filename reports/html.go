@@ -98,18 +98,20 @@ type HTMLOptions struct {
 	Reagent  string
 	Strength float64
 	// MaxDose is the end of the dose axis, mg/L of product. 0 chooses, per
-	// sample, the dose that would remove 90 % of the alkalinity (or
+	// sample, the dose that would remove 80 % of the alkalinity (or
 	// 100 mg/L when that is not defined, as for CO2 or a water without
 	// alkalinity).
 	MaxDose float64
-	// Detail is how many computed samples, in input order, get a full
-	// section with charts; the others appear in the summary table only.
-	// 0 means all; a negative value means none.
+	// Detail is how many samples, in input order, get a full section with
+	// charts; the others appear in the summary tables only. A sample whose
+	// equilibrium could not be computed counts too: its section gives the
+	// error, the analysis and the data quality. (A row the input could not
+	// give has no section.) 0 means all; a negative value means none.
 	Detail int
 }
 
 // Check reports the first option out of range: SkinTemperature outside
-// 0–150 °C, MaxCycles outside 1–50, a negative MaxDose or Detail, an
+// 0–150 °C, MaxCycles outside 1–50, a negative MaxDose, an
 // unknown reagent or a strength outside 0–100 %. NaN is out of range.
 func (o HTMLOptions) Check() error {
 	if !(o.SkinTemperature >= 0 && o.SkinTemperature <= 150) {
@@ -154,19 +156,22 @@ func (o HTMLOptions) maxCycles() float64 {
 // WriteHTML writes r as one self-contained HTML page: the chart script
 // (Apache ECharts) and the style are inlined and the page requests nothing
 // from any network (its content-security policy forbids it). Every sample
-// gets a row in the summary; the first HTMLOptions.Detail computed samples
-// get a section with their findings, saturation indices with risk bands,
+// gets a row in the summary; the first HTMLOptions.Detail samples get a
+// section with their findings, saturation indices with risk bands,
 // charts (saturation index against temperature, cycles of concentration
 // and reagent dose; a temperature × cycles map of the limiting mineral;
 // the composition in meq/L), the analysis as entered and as used, the data
 // quality and the treatment answers of r's Treatment parts. Waters sampled
 // on two or more dates get their indices over time. The methods, data
-// sources and cautions close the report.
+// sources and cautions close the report. A sample whose equilibrium could
+// not be computed is listed with its error and, within Detail, gets a
+// section with the error, its analysis and its data quality.
 //
 // The sweeps behind the charts are computed by saturation.Sweep; a sweep
-// point that fails is left out of its chart and said so, and the report is
-// still written. Chart values are rounded for display and NaN never
-// reaches a chart. The output is deterministic: fixed chart IDs and a
+// point that fails is left out of its chart and said so, a panel with no
+// point left is dropped and a chart with no panel left is replaced by a
+// note that says why, and the report is still written. Chart values are
+// rounded for display and NaN never reaches a chart. The output is deterministic: fixed chart IDs and a
 // stable order. The error is non-nil when an option is out of range or
 // writing fails.
 func WriteHTML(w io.Writer, r Report) error {

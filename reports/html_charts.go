@@ -2,6 +2,7 @@ package reports
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"math"
 
@@ -94,8 +95,42 @@ func (pc panelChart) height() int {
 	return rows*panelRowHeight + 6
 }
 
-// option builds the echarts option of a panel chart.
+// drawable returns pc with its points that are not finite left out and
+// its panels with no point left dropped, and the titles of the panels it
+// dropped. A sweep whose points failed thus loses a panel (or, when every
+// panel is empty, the whole chart) rather than the report.
+func (pc panelChart) drawable() (panelChart, []string) {
+	out := pc
+	out.Panels = nil
+	var dropped []string
+	for _, p := range pc.Panels {
+		q := p
+		q.Points = nil
+		for _, pt := range p.Points {
+			if finite(pt.X) && finite(pt.Y) {
+				q.Points = append(q.Points, pt)
+			}
+		}
+		if len(q.Points) == 0 {
+			dropped = append(dropped, p.Title)
+			continue
+		}
+		out.Panels = append(out.Panels, q)
+	}
+	return out, dropped
+}
+
+// errNoPanel marks a panel chart none of whose panels has a finite point.
+var errNoPanel = errors.New("no panel has a value that could be computed")
+
+// option builds the echarts option of a panel chart from its drawable
+// panels (see drawable); call height on the drawable chart too. The error
+// is errNoPanel when no panel is left.
 func (pc panelChart) option() (map[string]any, error) {
+	pc, _ = pc.drawable()
+	if len(pc.Panels) == 0 {
+		return nil, fmt.Errorf("chart %s: %w", pc.ID, errNoPanel)
+	}
 	n := len(pc.Panels)
 	cols := panelColumns(n)
 	colWidth := 100.0 / float64(cols)

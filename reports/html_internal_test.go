@@ -6,6 +6,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -61,6 +62,45 @@ func TestChartRefusesNaN(t *testing.T) {
 	}
 	if _, err := chartJSON("n", option); err != nil {
 		t.Errorf("NaN points reach the option: %v", err)
+	}
+}
+
+// TestPanelChartDropsEmptyPanels: a panel with no finite point (a pH
+// panel whose dose points all failed) is dropped, not an error, and the
+// chart is drawn from the others; a chart left with no panel is an error
+// its caller turns into a note.
+func TestPanelChartDropsEmptyPanels(t *testing.T) {
+	nan := math.NaN()
+	pc := panelChart{ID: "s3-dose", XMin: 0, XMax: nan, Panels: []panel{
+		{Title: "pH", Limit: nan},
+		{Title: "empty too", Limit: nan, Points: []xy{{0, nan}, {nan, 1}}},
+		{Title: "gypsum", SI: true, Limit: 0.36, Points: []xy{{0, -0.5}, {50, nan}, {100, -0.4}}},
+		{Title: "anhydrite", SI: true, Limit: 0.36, Points: []xy{{0, -0.7}, {100, -0.6}}},
+	}}
+	drawn, dropped := pc.drawable()
+	if !slices.Equal(dropped, []string{"pH", "empty too"}) {
+		t.Errorf("dropped %q, want the pH panel and the other empty one", dropped)
+	}
+	if len(drawn.Panels) != 2 || len(drawn.Panels[0].Points) != 2 {
+		t.Fatalf("drawable kept %+v, want gypsum with its two finite points and anhydrite", drawn.Panels)
+	}
+	if drawn.height() >= pc.height() {
+		t.Errorf("height %d of the drawable chart, want less than %d", drawn.height(), pc.height())
+	}
+	option, err := pc.option()
+	if err != nil {
+		t.Fatalf("a chart with empty panels: %v", err)
+	}
+	raw, err := chartJSON(pc.ID, option)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s := string(raw); strings.Contains(s, `"pH"`) || !strings.Contains(s, `"gypsum"`) {
+		t.Errorf("the option holds the pH panel or lacks gypsum: %.300s", s)
+	}
+	pc.Panels = pc.Panels[:2]
+	if _, err := pc.option(); !errors.Is(err, errNoPanel) {
+		t.Errorf("a chart with no finite point: err = %v, want errNoPanel", err)
 	}
 }
 

@@ -147,7 +147,7 @@ a { color: var(--accent); }
 {{- if .Failed}}
 <h3>Samples not computed</h3>
 <table><thead><tr><th>Sample</th><th>Where</th><th>Why</th></tr></thead><tbody>
-{{- range .Failed}}<tr><td>{{.Name}}</td><td>{{.Where}}</td><td>{{.Error}}</td></tr>{{end}}
+{{- range .Failed}}<tr><td>{{if .Anchor}}<a href="#{{.Anchor}}">{{.Name}}</a>{{else}}{{.Name}}{{end}}</td><td>{{.Where}}</td><td>{{.Error}}</td></tr>{{end}}
 </tbody></table>
 {{- end}}
 <h3>Risk bands</h3>
@@ -164,8 +164,12 @@ a { color: var(--accent); }
 <div class="facts">
 {{- range .Facts}}<div class="fact"><div class="label">{{.Label}}</div><div class="value">{{.Value}}</div>{{if .Chip}}<span class="chip {{.Chip.Class}}">{{.Chip.Text}}</span>{{end}}{{if .Note}}<div class="note">{{.Note}}</div>{{end}}</div>{{end}}
 </div>
+{{- if .SpeciationError}}
+<div class="caution"><strong>Not computed.</strong> The equilibrium of this sample could not be computed: {{.SpeciationError}}. {{.SpeciationErrorDetail}}</div>
+{{- end}}
 <h3>Findings</h3>
 <ul class="findings">{{range .Findings}}<li>{{.}}</li>{{end}}</ul>
+{{- if not .SpeciationError}}
 
 <h3>Saturation indices at equilibrium</h3>
 <div class="cols">
@@ -178,6 +182,7 @@ a { color: var(--accent); }
 {{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td><td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td><td class="n">{{.Limit}}</td><td class="n">{{.LogK}}</td></tr>{{end}}
 </tbody>
 </table>
+{{- end}}
 
 {{- range .ChartNotes}}<p class="muted small">{{.}}</p>{{end}}
 {{- range .Charts}}

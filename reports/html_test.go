@@ -3,6 +3,7 @@ package reports_test
 import (
 	"bytes"
 	"encoding/json"
+	"errors"
 	"fmt"
 	"html"
 	"os"
@@ -273,6 +274,151 @@ func TestHTMLFailedSamples(t *testing.T) {
 		t.Error("the bad row is not listed with its place")
 	}
 	if !strings.Contains(page, "2 read, 1 computed, 1 not computed") {
+		t.Error("the header does not count the samples")
+	}
+}
+
+// fourWaters are four waters far apart: a soft water, a seawater-like
+// brine, an acid mine water (pH 3, no alkalinity, much iron and sulfate)
+// and a high-silica water at pH 9.5. The sweeps of the acid mine water
+// once failed to converge and took the whole report down.
+const fourWaters = `name,temperature [C],pH,pH_temperature [C],Ca [mg/L],Mg [mg/L],Na [mg/L],K [mg/L],Fe [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3],SiO2 [mg/L]
+soft water,15,7,15,10,2,5,0,0,8,10,25,0
+seawater-like,25,8.1,25,412,1290,10770,399,0,19350,2710,117,0
+acid mine water,20,3.0,20,200,80,20,0,200,10,1500,0,0
+high-silica water,40,9.5,40,20,0,150,0,0,100,50,200,180
+`
+
+// withoutLibrary is a page without the inlined chart library, whose code
+// mentions NaN and Infinity.
+func withoutLibrary(t *testing.T, page string) string {
+	t.Helper()
+	lib, err := os.ReadFile("assets/echarts.min.js")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return strings.Replace(page, string(lib), "", 1)
+}
+
+// TestHTMLSweepFailures: one sample whose sweep points fail, or whose
+// equilibrium failed, does not cost the others their report. The four
+// waters are reported with two more: one whose cycles points all failed
+// (its cycles chart gives way to a note) and one whose equilibrium could
+// not be computed (its section gives the error, the analysis and the
+// data quality).
+func TestHTMLSweepFailures(t *testing.T) {
+	as := assessFile(t, "waters.csv", []byte(fourWaters))
+	if len(as) != 4 {
+		t.Fatalf("%d samples read, want 4", len(as))
+	}
+	samples := reports.ReportSamples(as)
+
+	swept := samples[0]
+	swept.Name = "soft water, cycles not computed"
+	invented := errors.New("invented failure of a cycles point")
+	swept.Treatment = &reports.Treatment{Cycles: &saturation.CyclesResult{MaxCycles: 3,
+		Points: []saturation.CyclePoint{{Cycles: 1, Err: invented}, {Cycles: 2, Err: invented}, {Cycles: 3, Err: invented}}}}
+
+	failed := samples[0]
+	failed.Name = "soft water, not computed"
+	failed.Line = 7
+	failed.Result, failed.Indices, failed.Precipitation = nil, nil, nil
+	failed.Err = errors.New("speciation did not converge (an invented failure)")
+	samples = append(samples, swept, failed)
+
+	path := filepath.Join(t.TempDir(), "waters.html")
+	if err := reports.WriteHTMLFile(path, reports.Report{Inputs: []string{"waters.csv"}, Samples: samples}); err != nil {
+		t.Fatalf("the report was not written: %v", err)
+	}
+	raw, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := string(raw)
+	if !strings.HasSuffix(strings.TrimSpace(page), "</html>") {
+		t.Fatal("the file is not a whole page")
+	}
+	own := withoutLibrary(t, page)
+	for _, bad := range []string{"NaN", "Infinity"} {
+		if i := strings.Index(own, bad); i >= 0 {
+			t.Errorf("the page holds %q: …%s…", bad, own[max(0, i-120):min(len(own), i+40)])
+		}
+	}
+
+	// A section per sample, in input order.
+	sections := regexp.MustCompile(`<section class="sample" id="(sample-\d+)">\s*<h2><span class="num">\d+</span>([^<]*)</h2>`).
+		FindAllStringSubmatch(page, -1)
+	if len(sections) != len(samples) {
+		t.Fatalf("%d sample sections, want %d", len(sections), len(samples))
+	}
+	for i, s := range samples {
+		if got, want := sections[i][2], html.EscapeString(s.Name); got != want {
+			t.Errorf("section %d is %q, want %q", i+1, got, want)
+		}
+		if got, want := sections[i][1], fmt.Sprintf("sample-%d", i+1); got != want {
+			t.Errorf("section %d has anchor %q, want %q", i+1, got, want)
+		}
+	}
+	section := func(i int) string {
+		start := strings.Index(page, `id="`+sections[i][1]+`"`)
+		end := strings.Index(page[start:], "</section>")
+		return page[start : start+end]
+	}
+
+	// Every chart container has its option, and no option holds NaN.
+	ids := chartIDs(page)
+	opts := chartOptions(t, page)
+	for _, id := range ids {
+		if _, ok := opts[id]; !ok {
+			t.Errorf("chart %s has no option", id)
+		}
+	}
+	if len(opts) != len(ids) {
+		t.Errorf("%d chart options for %d containers", len(opts), len(ids))
+	}
+	for _, id := range []string{"s1-temperature", "s2-dose", "s4-map", "s3-composition"} {
+		if !slices.Contains(ids, id) {
+			t.Errorf("no chart %s", id)
+		}
+	}
+	// The acid mine water: a chart is drawn, or a note says why not.
+	acid := section(2)
+	for _, kind := range []string{"temperature", "cycles", "dose"} {
+		if !strings.Contains(acid, `data-chart="s3-`+kind+`"`) && !strings.Contains(acid, "not computed") {
+			t.Errorf("the acid mine water has no %s chart and no note why", kind)
+		}
+	}
+
+	// All cycles points failed: no cycles chart, a note with the reason,
+	// and the other charts of the sample.
+	sw := section(4)
+	if strings.Contains(sw, `data-chart="s5-cycles"`) {
+		t.Error("a cycles chart is drawn though none of its points was computed")
+	}
+	if want := "Saturation index against cycles of concentration: not computed, 3 of its 3 points could not be " +
+		"computed (invented failure of a cycles point)."; !strings.Contains(sw, want) {
+		t.Errorf("the section lacks the note %q", want)
+	}
+	if !strings.Contains(sw, `data-chart="s5-temperature"`) {
+		t.Error("the temperature chart of the sample with failed cycles points is missing")
+	}
+
+	// The sample not computed: its section gives the error, the analysis
+	// and the data quality, and the summary links it.
+	nc := section(5)
+	for _, want := range []string{"<strong>Not computed.</strong>", "speciation did not converge (an invented failure)",
+		"The analysis as entered and as used", "<h3>Data quality</h3>", "ion balance", `data-chart="s6-composition"`} {
+		if !strings.Contains(nc, want) {
+			t.Errorf("the section of the sample not computed lacks %q", want)
+		}
+	}
+	if strings.Contains(nc, "Saturation indices at equilibrium") {
+		t.Error("the section of the sample not computed shows saturation indices")
+	}
+	if !strings.Contains(page, `<a href="#sample-6">soft water, not computed</a></td><td>waters.csv, line 7</td>`) {
+		t.Error("the summary does not list the sample not computed with a link to its section")
+	}
+	if !strings.Contains(page, "6 read, 5 computed, 1 not computed") {
 		t.Error("the header does not count the samples")
 	}
 }

@@ -57,7 +57,9 @@ type overviewRow struct {
 	Band                                               chip
 }
 
-type failedRow struct{ Name, Where, Error string }
+// failedRow is a sample that was not computed; Anchor links its section
+// (empty when it has none, as for a row the input could not give).
+type failedRow struct{ Name, Where, Error, Anchor string }
 
 type kv struct{ Key, Value string }
 
@@ -86,27 +88,30 @@ type qualityRow struct {
 }
 
 type sampleView struct {
-	Number                int
-	Anchor, Name, Where   string
-	Facts                 []fact
-	Findings              []string
-	Equilibrium           []kv
-	Minerals              []mineralRow
-	Charts                []chartView
-	ChartNotes            []string
-	Indices               []indexRow
-	IndicesAt             string
-	Scale                 []scaleRow
-	ScaleKg               bool
-	Treatment             *treatmentView
-	Entered               []kv
-	Components            []componentRow
-	BelowDetection        []string
-	DetectionNote         string
-	Quality               []qualityRow
-	QualitySums           []kv
-	QualityFlags          []string
-	Warnings              []string
+	Number              int
+	Anchor, Name, Where string
+	Facts               []fact
+	Findings            []string
+	Equilibrium         []kv
+	Minerals            []mineralRow
+	Charts              []chartView
+	ChartNotes          []string
+	Indices             []indexRow
+	IndicesAt           string
+	Scale               []scaleRow
+	ScaleKg             bool
+	Treatment           *treatmentView
+	Entered             []kv
+	Components          []componentRow
+	BelowDetection      []string
+	DetectionNote       string
+	Quality             []qualityRow
+	QualitySums         []kv
+	QualityFlags        []string
+	Warnings            []string
+	// SpeciationError is why the equilibrium of the sample could not be
+	// computed, and SpeciationErrorDetail what that leaves out; both are
+	// empty for a computed sample.
 	SpeciationError       string
 	SpeciationErrorDetail string
 }
@@ -158,17 +163,20 @@ func buildView(r Report) (*pageView, error) {
 		v.Bands = append(v.Bands, bandRow{Chip: chip{bd.String(), st.Class}, Meaning: bandMeaning(bd)})
 	}
 	detailed := 0
+	inBudget := func() bool { return r.Options.Detail == 0 || detailed < r.Options.Detail }
 	for i, s := range r.Samples {
 		if s.Result == nil {
-			where := s.File
-			if s.Line > 0 {
-				where = fmt.Sprintf("%s, line %d", s.File, s.Line)
+			// A sample whose equilibrium could not be computed still gets
+			// its section (the error, the analysis, the data quality);
+			// a row the input could not give has no analysis to show.
+			row := failedRow{Name: s.Name, Where: sampleWhere(s), Error: sampleError(s)}
+			if !s.BadInput && inBudget() {
+				detailed++
+				sec := b.failedSection(i, detailed, s)
+				row.Anchor = sec.Anchor
+				v.Sections = append(v.Sections, sec)
 			}
-			msg := "not computed"
-			if s.Err != nil {
-				msg = s.Err.Error()
-			}
-			v.Failed = append(v.Failed, failedRow{Name: s.Name, Where: where, Error: msg})
+			v.Failed = append(v.Failed, row)
 			continue
 		}
 		v.ComputedCount++
@@ -179,12 +187,9 @@ func buildView(r Report) (*pageView, error) {
 			}
 		}
 		anchor := ""
-		if r.Options.Detail == 0 || detailed < r.Options.Detail {
+		if inBudget() {
 			detailed++
-			sec, err := b.section(i, detailed, s)
-			if err != nil {
-				return nil, err
-			}
+			sec := b.section(i, detailed, s)
 			anchor = sec.Anchor
 			v.Sections = append(v.Sections, sec)
 		} else {
@@ -192,11 +197,7 @@ func buildView(r Report) (*pageView, error) {
 		}
 		v.Overview = append(v.Overview, overviewOf(s, anchor))
 	}
-	times, note, err := b.timeCharts()
-	if err != nil {
-		return nil, err
-	}
-	v.Time, v.TimeNote = times, note
+	v.Time, v.TimeNote = b.timeCharts()
 	v.Methods = b.methods()
 	v.ChartCount = len(b.options)
 	opt, err := json.Marshal(b.options) // keys sorted: deterministic
@@ -234,22 +235,78 @@ func balanceChip(q water.Quality) chip {
 	return chip{text, "v-check"}
 }
 
-// section builds the full section of one computed sample.
-func (b *builder) section(index, number int, s ReportSample) (sampleView, error) {
-	r := s.Result
+// sampleWhere is the place of a sample in its file ("lab.csv, line 3").
+func sampleWhere(s ReportSample) string {
+	if s.Line > 0 {
+		return fmt.Sprintf("%s, line %d", s.File, s.Line)
+	}
+	return s.File
+}
+
+// sampleError is why a sample was not computed.
+func sampleError(s ReportSample) string {
+	if s.Err != nil {
+		return s.Err.Error()
+	}
+	return "not computed"
+}
+
+// sectionHead starts the section of a sample: its number, anchor, name,
+// and where it comes from.
+func sectionHead(index, number int, s ReportSample) sampleView {
 	sv := sampleView{Number: number, Anchor: fmt.Sprintf("sample-%d", index+1), Name: s.Name}
 	var where []string
-	if s.File != "" {
-		w := s.File
-		if s.Line > 0 {
-			w += fmt.Sprintf(", line %d", s.Line)
-		}
+	if w := sampleWhere(s); w != "" {
 		where = append(where, w)
 	}
 	if s.Input.Date != "" {
 		where = append(where, "sampled "+s.Input.Date)
 	}
 	sv.Where = strings.Join(where, " · ")
+	return sv
+}
+
+// sectionTail adds the analysis as entered and as used, the data quality
+// and the warnings of a sample to its section; r is nil when the
+// equilibrium was not computed.
+func (b *builder) sectionTail(sv *sampleView, s ReportSample, r *saturation.Result) {
+	sv.Entered, sv.Components = entered(s.Input, r)
+	sv.BelowDetection = s.Input.BelowDetection
+	if len(sv.BelowDetection) > 0 {
+		sv.DetectionNote = detectionWords(b.o.Detection)
+	}
+	sv.Quality, sv.QualitySums, sv.QualityFlags = qualityRows(s.Quality, r)
+	sv.Warnings = append(sv.Warnings, s.Input.Warnings...)
+	if r != nil {
+		sv.Warnings = append(sv.Warnings, r.Warnings...)
+	}
+	sv.Warnings = append(sv.Warnings, s.Warnings...)
+}
+
+// failedSection builds the section of a sample whose equilibrium could not
+// be computed: the error, the ion balance, the composition chart, the
+// analysis as entered and as used, and the data quality, which may show
+// why.
+func (b *builder) failedSection(index, number int, s ReportSample) sampleView {
+	sv := sectionHead(index, number, s)
+	sv.SpeciationError = sampleError(s)
+	sv.SpeciationErrorDetail = "No saturation index, chart of the saturation state or treatment answer is " +
+		"given for this sample. The analysis and its data quality below may show why: a poor ion balance, " +
+		"a missing analyte or a value in the wrong unit are common causes."
+	sv.Facts = []fact{{Label: "Equilibrium", Value: "not computed"}, balanceFact(s)}
+	sv.Findings = b.qualityFinding(s)
+	if cv, ok := b.compositionView(fmt.Sprintf("s%d-composition", index+1), s); ok {
+		sv.Charts = append(sv.Charts, cv)
+	}
+	b.sectionTail(&sv, s, nil)
+	return sv
+}
+
+// section builds the full section of one computed sample. A chart that
+// cannot be drawn is left out with a note; it never fails the section.
+func (b *builder) section(index, number int, s ReportSample) sampleView {
+	r := s.Result
+	sv := sectionHead(index, number, s)
 
 	sv.Equilibrium = []kv{
 		{"Evaluated at", num(r.Temperature, 1) + " °C"},
@@ -286,25 +343,13 @@ func (b *builder) section(index, number int, s ReportSample) (sampleView, error)
 	sw := b.sweeps(index, s)
 	sv.Facts = b.facts(s, sw)
 	sv.Findings = b.findings(s, sw)
-	charts, notes, err := b.sampleCharts(index, s, sw)
-	if err != nil {
-		return sv, err
-	}
-	sv.Charts, sv.ChartNotes = charts, notes
+	sv.Charts, sv.ChartNotes = b.sampleCharts(index, s, sw)
 	sv.Indices = indexRows(s.Indices)
 	sv.IndicesAt = num(r.Temperature, 1) + " °C"
 	sv.Scale, sv.ScaleKg = scaleRows(s.Precipitation, s.Flow), s.Flow > 0
 	sv.Treatment = b.treatment(s)
-	sv.Entered, sv.Components = entered(s.Input, r)
-	sv.BelowDetection = s.Input.BelowDetection
-	if len(sv.BelowDetection) > 0 {
-		sv.DetectionNote = detectionWords(b.o.Detection)
-	}
-	sv.Quality, sv.QualitySums, sv.QualityFlags = qualityRows(s.Quality, r)
-	sv.Warnings = append(sv.Warnings, s.Input.Warnings...)
-	sv.Warnings = append(sv.Warnings, r.Warnings...)
-	sv.Warnings = append(sv.Warnings, s.Warnings...)
-	return sv, nil
+	b.sectionTail(&sv, s, r)
+	return sv
 }
 
 // sweepSet is what the charts of one sample show: its saturation state
@@ -327,6 +372,7 @@ type sweepSet struct {
 	err        error                      // the water could not be swept
 	failed     int                        // points that could not be computed
 	total      int
+	firstErr   error // of the first point that could not be computed
 }
 
 // Points of the sweeps.
@@ -391,6 +437,9 @@ func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
 			sw.total++
 			if p.Err != nil || p.Result == nil {
 				sw.failed++
+				if sw.firstErr == nil {
+					sw.firstErr = p.Err
+				}
 				continue
 			}
 			results = append(results, p.Result)
@@ -437,7 +486,8 @@ func roundUp(x float64) float64 {
 const maxPanelTitle = 30
 
 // siPanels turns sweep points into one SI panel per mineral; x is rounded
-// to xDecimals.
+// to xDecimals. A panel whose points all failed is kept, empty, for
+// panelChart.drawable to drop.
 func siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDecimals int) []panel {
 	var out []panel
 	for _, m := range minerals {
@@ -456,9 +506,7 @@ func siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDeci
 				p.Points = append(p.Points, xy{dec(pt.X, xDecimals), dec(si, 2)})
 			}
 		}
-		if len(p.Points) > 0 {
-			out = append(out, p)
-		}
+		out = append(out, p) // even empty: drawable drops it and says why
 	}
 	return out
 }
@@ -483,16 +531,104 @@ func (b *builder) addChart(id string, option map[string]any) error {
 	return nil
 }
 
-// sampleCharts builds the five charts of a sample. The chart IDs are
-// "s<N>-<kind>", N the sample's position in the input.
-func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chartView, []string, error) {
+// addPanelChart adds a panel chart titled title, drawn from the points of
+// pts: its panels with no finite point are left out (the note says so
+// when points of pts failed), and when none is left (or the option cannot
+// be encoded) the chart is, and the note says why. A chart with no panels
+// to begin with (nothing worth charting) is left out without a note.
+func (b *builder) addPanelChart(pc panelChart, title, caption, caution string, pts []saturation.Point) (chartView, string, bool) {
+	if len(pc.Panels) == 0 {
+		return chartView{}, "", false
+	}
+	drawn, dropped := pc.drawable()
+	if len(drawn.Panels) == 0 {
+		return chartView{}, fmt.Sprintf("%s: not computed, %s.", title, sweepWhy(pts)), false
+	}
+	option, err := drawn.option()
+	if err == nil {
+		err = b.addChart(drawn.ID, option)
+	}
+	if err != nil {
+		return chartView{}, fmt.Sprintf("%s: not drawn (%v).", title, err), false
+	}
+	note := ""
+	// A panel can be empty because its sweep failed (say so) or because
+	// its mineral is not in these results (nothing to say).
+	if len(dropped) > 0 && sweepFailed(pts) {
+		note = fmt.Sprintf("%s: the panel %s is left out, %s.", title, strings.Join(dropped, ", "), sweepWhy(pts))
+		if len(dropped) > 1 {
+			note = fmt.Sprintf("%s: the panels %s are left out, %s.", title, strings.Join(dropped, ", "), sweepWhy(pts))
+		}
+	}
+	return chartView{ID: drawn.ID, Title: title, Caption: caption, Height: drawn.height(), Caution: caution}, note, true
+}
+
+// sweepFailed reports whether any point of a sweep failed.
+func sweepFailed(pts []saturation.Point) bool {
+	for _, p := range pts {
+		if p.Err != nil || p.Result == nil {
+			return true
+		}
+	}
+	return false
+}
+
+// sweepWhy says why a sweep gave nothing to draw: how many of its points
+// could not be computed and the first error, or that its values were not
+// finite.
+func sweepWhy(pts []saturation.Point) string {
+	failed := 0
+	var first error
+	for _, p := range pts {
+		if p.Err != nil || p.Result == nil {
+			failed++
+			if first == nil {
+				first = p.Err
+			}
+		}
+	}
+	switch {
+	case failed == 0:
+		return "no finite value came out of its points"
+	case first == nil:
+		return fmt.Sprintf("%d of its %d points could not be computed", failed, len(pts))
+	}
+	return fmt.Sprintf("%d of its %d points could not be computed (%v)", failed, len(pts), first)
+}
+
+// compositionView adds the composition chart of a sample; ok is false
+// when it has no ions to show or the chart cannot be encoded.
+func (b *builder) compositionView(id string, s ReportSample) (chartView, bool) {
+	cc := compositionOf(id, s.Input)
+	if len(cc.Ions) == 0 {
+		return chartView{}, false
+	}
+	if err := b.addChart(cc.ID, cc.option()); err != nil {
+		return chartView{}, false
+	}
+	return chartView{ID: cc.ID, Title: "Composition, meq/L",
+		Caption: fmt.Sprintf("Cations and anions as entered, milliequivalents per litre; the bars are equally "+
+			"long when the ions balance (here %s).", balanceChip(s.Quality).Text), Height: cc.height()}, true
+}
+
+// sampleCharts builds the five charts of a sample and the notes on those
+// that could not be drawn. The chart IDs are "s<N>-<kind>", N the
+// sample's position in the input.
+func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chartView, []string) {
 	var views []chartView
 	var notes []string
 	id := func(kind string) string { return fmt.Sprintf("s%d-%s", index+1, kind) }
-	r := s.Result
-	if sw.err != nil {
+	switch {
+	case sw.err != nil:
 		notes = append(notes, "The temperature, cycles and dose charts could not be computed: "+sw.err.Error())
-	} else {
+	case sw.total > 0 && sw.failed == sw.total:
+		why := ""
+		if sw.firstErr != nil {
+			why = " (" + sw.firstErr.Error() + ")"
+		}
+		notes = append(notes, fmt.Sprintf("The temperature, cycles and dose charts and the limiting-mineral map "+
+			"are not computed: none of the %d points of their sweeps could be computed%s.", sw.total, why))
+	default:
 		if sw.failed > 0 {
 			notes = append(notes, fmt.Sprintf("%d of %d points of the charts could not be computed and are left out.",
 				sw.failed, sw.total))
@@ -528,52 +664,42 @@ func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chart
 			pc             panelChart
 			title, caption string
 			caution        string
+			pts            []saturation.Point
 		}{
 			{temp, "Saturation index against temperature",
 				fmt.Sprintf("The water heated in a closed system from the sample temperature (%s °C) to %s °C, "+
 					"the tube-wall (skin) temperature of a heat exchanger. Solid line: equilibrium (SI = 0); "+
 					"blue band: near equilibrium (±0.2); dashed line: the SI an inhibitor usually holds.",
-					num(sw.bulk, 1), num(sw.hot, 1)), ""},
-			{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced), ""},
+					num(sw.bulk, 1), num(sw.hot, 1)), "", sw.temp},
+			{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced), "", sw.cycles},
 			{dose, fmt.Sprintf("pH and saturation index against %s dose", b.reagent.Label),
 				fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. Rising lines are side effects "+
 					"of what the reagent adds (sulfate from sulfuric acid raises the sulfate minerals).",
 					num(strength, 0), b.reagent.Label, b.reagent.Formula, num(sw.maxDose, 0), forced),
-				sentence(b.reagent.Caution)},
+				sentence(b.reagent.Caution), sw.dose},
 		}
 		for _, sp := range specs {
-			if len(sp.pc.Panels) == 0 {
-				continue
+			view, note, ok := b.addPanelChart(sp.pc, sp.title, sp.caption, sp.caution, sp.pts)
+			if note != "" {
+				notes = append(notes, note)
 			}
-			option, err := sp.pc.option()
-			if err != nil {
-				return nil, nil, err
+			if ok {
+				views = append(views, view)
 			}
-			if err := b.addChart(sp.pc.ID, option); err != nil {
-				return nil, nil, err
-			}
-			views = append(views, chartView{ID: sp.pc.ID, Title: sp.title, Caption: sp.caption,
-				Height: sp.pc.height(), Caution: sp.caution})
 		}
+		const mapTitle = "Limiting mineral by temperature and cycles"
 		if hc, caption, ok := heatOf(id("map"), sw); ok {
 			if err := b.addChart(hc.ID, hc.option()); err != nil {
-				return nil, nil, err
+				notes = append(notes, fmt.Sprintf("%s: not drawn (%v).", mapTitle, err))
+			} else {
+				views = append(views, chartView{ID: hc.ID, Title: mapTitle, Caption: caption, Height: hc.height()})
 			}
-			views = append(views, chartView{ID: hc.ID, Title: "Limiting mineral by temperature and cycles",
-				Caption: caption, Height: hc.height()})
 		}
 	}
-	cc := compositionOf(id("composition"), s.Input)
-	if len(cc.Ions) > 0 {
-		if err := b.addChart(cc.ID, cc.option()); err != nil {
-			return nil, nil, err
-		}
-		views = append(views, chartView{ID: cc.ID, Title: "Composition, meq/L",
-			Caption: fmt.Sprintf("Cations and anions as entered, milliequivalents per litre; the bars are equally "+
-				"long when the ions balance (here %s).", balanceChip(s.Quality).Text), Height: cc.height()})
+	if cv, ok := b.compositionView(id("composition"), s); ok {
+		views = append(views, cv)
 	}
-	_ = r
-	return views, notes, nil
+	return views, notes
 }
 
 // heatOf builds the limiting-mineral map of a sample.
@@ -692,6 +818,14 @@ func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
 			}
 		}
 	}
+	out = append(out, balanceFact(s))
+	out = append(out, fact{Label: "pH · ionic strength",
+		Value: num(r.PH, 2) + " · " + sigText(r.IonicStrength, 3) + " mol/kg", Note: r.Activity.String() + " activities"})
+	return out
+}
+
+// balanceFact is the ion balance of a sample and its verdict.
+func balanceFact(s ReportSample) fact {
 	bal := balanceChip(s.Quality)
 	verdict := "meets " + s.Quality.BalanceLimit
 	if bal.Class == "v-check" {
@@ -700,10 +834,7 @@ func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
 	if bal.Class == "v-none" {
 		verdict = "no ions to balance"
 	}
-	out = append(out, fact{Label: "Ion balance", Value: bal.Text, Note: verdict})
-	out = append(out, fact{Label: "pH · ionic strength",
-		Value: num(r.PH, 2) + " · " + sigText(r.IonicStrength, 3) + " mol/kg", Note: r.Activity.String() + " activities"})
-	return out
+	return fact{Label: "Ion balance", Value: bal.Text, Note: verdict}
 }
 
 // findings are the plain-word conclusions of a sample's section, read from
@@ -737,7 +868,8 @@ func (b *builder) findings(s ReportSample, sw *sweepSet) []string {
 }
 
 // passFindings says which minerals go beyond inhibitor reach over a sweep
-// and from which point, or that none does.
+// and from which point, or that none does; nothing when no point of the
+// sweep was computed.
 func passFindings(pts []saturation.Point, at func(float64) string, span string) []string {
 	type first struct {
 		name string
@@ -745,10 +877,12 @@ func passFindings(pts []saturation.Point, at func(float64) string, span string) 
 	}
 	var firsts []first
 	seen := map[string]bool{}
+	computed := 0
 	for _, p := range pts {
 		if p.Result == nil {
 			continue
 		}
+		computed++
 		for _, m := range p.Result.Minerals {
 			if seen[m.Name] || !scaleFormer(m.Name, m.SI) {
 				continue
@@ -758,6 +892,9 @@ func passFindings(pts []saturation.Point, at func(float64) string, span string) 
 				firsts = append(firsts, first{m.Name, p.X})
 			}
 		}
+	}
+	if computed == 0 {
+		return nil // nothing was computed to say it of
 	}
 	if len(firsts) == 0 {
 		return []string{fmt.Sprintf("No mineral goes beyond inhibitor reach %s.", span)}
@@ -1021,7 +1158,7 @@ func valueWithUnit(v float64, unit string) string {
 // timeCharts builds the indices-over-time charts: one per water (sample
 // name) with two or more computed samples whose dates read as calendar
 // dates, at most maxTimeCharts, the waters with the most samples first.
-func (b *builder) timeCharts() ([]chartView, string, error) {
+func (b *builder) timeCharts() ([]chartView, string) {
 	type dated struct {
 		t time.Time
 		s ReportSample
@@ -1082,23 +1219,18 @@ func (b *builder) timeCharts() ([]chartView, string, error) {
 		if len(lsi.Points) > 0 {
 			panels = append([]panel{lsi}, panels...)
 		}
-		if len(panels) == 0 {
-			continue
-		}
 		pc := panelChart{ID: fmt.Sprintf("time-%d", i+1), Time: true, XMin: math.NaN(), XMax: math.NaN(), Panels: panels}
-		option, err := pc.option()
-		if err != nil {
-			return nil, "", err
+		caption := fmt.Sprintf("%d samples from %s to %s, at the temperature of each sample.", len(pts),
+			pts[0].t.Format("2 Jan 2006"), pts[len(pts)-1].t.Format("2 Jan 2006"))
+		view, why, ok := b.addPanelChart(pc, name, caption, "", sweep)
+		if why != "" {
+			note = strings.TrimSpace(note + " " + why)
 		}
-		if err := b.addChart(pc.ID, option); err != nil {
-			return nil, "", err
+		if ok {
+			views = append(views, view)
 		}
-		views = append(views, chartView{ID: pc.ID, Title: name,
-			Caption: fmt.Sprintf("%d samples from %s to %s, at the temperature of each sample.", len(pts),
-				pts[0].t.Format("2 Jan 2006"), pts[len(pts)-1].t.Format("2 Jan 2006")),
-			Height: pc.height()})
 	}
-	return views, note, nil
+	return views, note
 }
 
 // maxTimeCharts caps the indices-over-time charts.
