@@ -449,10 +449,6 @@ func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
 	return sw
 }
 
-// massCaCO3PerEq is the equivalent mass of CaCO3, mg/meq (100.087/2), which
-// turns an alkalinity in eq into mg/L as CaCO3.
-const massCaCO3PerEq = 50.043
-
 // autoDoseShare is the share of the alkalinity the automatic dose axis
 // reaches: most of it, but short of the steep fall of pH near the end
 // point.
@@ -463,7 +459,7 @@ const autoDoseShare = 0.8
 // round number; 100 mg/L when the reagent does not change alkalinity or
 // the water has none.
 func autoDose(r *saturation.Result, reagent water.Reagent, strength float64) float64 {
-	alk := r.Alkalinity * r.Analysis.WaterPerLitre * 1000 * massCaCO3PerEq // mg/L as CaCO3
+	alk := r.Analysis.AlkalinityAsCaCO3()
 	factor := math.Abs(reagent.AlkalinityFactor(strength))
 	if !finite(alk) || alk <= 0 || !(factor > 0) {
 		return 100
@@ -787,7 +783,7 @@ func compositionOf(id string, a water.Analysis) compositionChart {
 			}
 		} else {
 			for _, c := range g.components {
-				meq += math.Abs(c.Charge()) * a.Totals[c] * a.WaterPerLitre * 1000
+				meq += a.MeqPerLitre(c)
 			}
 		}
 		if finite(meq) && meq > 0 {
@@ -1042,14 +1038,14 @@ func entered(a water.Analysis, r *saturation.Result) ([]kv, []componentRow) {
 		}
 		meq := "—"
 		if z := c.Charge(); z != 0 {
-			meq = sigText(math.Abs(z)*a.Totals[c]*a.WaterPerLitre*1000, 3)
+			meq = sigText(a.MeqPerLitre(c), 3)
 		}
 		rows = append(rows, componentRow{Name: componentLabel(c), MgPerL: sigText(a.MgPerLitre(c), 4),
 			MmolPerKg: sigText(1000*a.Totals[c], 4), MeqPerL: meq})
 	}
 	if finite(a.Alkalinity) {
 		rows = append(rows, componentRow{Name: "alkalinity (as CaCO₃)",
-			MgPerL:    sigText(a.Alkalinity*a.WaterPerLitre*1000*massCaCO3PerEq, 4),
+			MgPerL:    sigText(a.AlkalinityAsCaCO3(), 4),
 			MmolPerKg: sigText(1000*a.Alkalinity, 4) + " meq", MeqPerL: sigText(a.Alkalinity*a.WaterPerLitre*1000, 3)})
 	}
 	if r != nil && finite(r.Carbon) && r.Carbon > 0 {

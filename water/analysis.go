@@ -279,3 +279,16 @@ func perLitre(b Basis, wpl, rho float64) float64 {
 	}
 	return 1
 }
+
+// MeqPerLitre returns the equivalents of component c per litre of
+// solution, meq/L, counting c as the ion of Component.Charge (0 for C, Si,
+// P and B).
+func (a Analysis) MeqPerLitre(c Component) float64 {
+	return math.Abs(c.Charge()) * a.Totals[c] * a.WaterPerLitre * 1000
+}
+
+// AlkalinityAsCaCO3 returns the total alkalinity in mg/L as CaCO3; NaN
+// when it is not known.
+func (a Analysis) AlkalinityAsCaCO3() float64 {
+	return a.Alkalinity * a.WaterPerLitre * 1000 * EquivalentMassCaCO3
+}
