@@ -75,13 +75,12 @@ func ReadLimits(file string, r io.Reader, m *Model) ([]LimitProfile, error) {
 	var profiles []LimitProfile
 	index := map[string]int{}
 	for {
-		rec, err := cr.Read()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		line, _ := cr.FieldPos(0)
+		rec, line, ok, err := nextRecord(cr, file, len(col), false)
 		if err != nil {
-			return nil, &water.InputError{File: file, Line: line, Err: err}
+			return nil, err
+		}
+		if !ok {
+			break
 		}
 		cell := func(h string) string {
 			if i, ok := col[h]; ok && i < len(rec) {

@@ -153,16 +153,12 @@ func readPitzerTable(file string, r io.Reader) (*pitzerTable, error) {
 	seen := map[string]int{}
 	declared := map[string]pitzerKind{}
 	for {
-		rec, err := cr.Read()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		line, _ := cr.FieldPos(0)
+		rec, line, ok, err := nextRecord(cr, file, ncol, true)
 		if err != nil {
-			return nil, &water.InputError{File: file, Line: line, Err: err}
+			return nil, err
 		}
-		if len(rec) != ncol {
-			return nil, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%d fields, want %d", len(rec), ncol)}
+		if !ok {
+			break
 		}
 		p, err := parsePitzerRow(rec, col, file, line)
 		if err != nil {

@@ -167,6 +167,24 @@ func openTableCSV(file string, r io.Reader, what string, required []string) (*cs
 	return cr, col, nil
 }
 
+// nextRecord reads the next record of a table opened by openTableCSV: ok
+// is false at the end. With strict, a record must have ncol fields. Errors
+// are *water.InputError naming the file and line.
+func nextRecord(cr *csv.Reader, file string, ncol int, strict bool) (rec []string, line int, ok bool, err error) {
+	rec, err = cr.Read()
+	if errors.Is(err, io.EOF) {
+		return nil, 0, false, nil
+	}
+	line, _ = cr.FieldPos(0)
+	if err != nil {
+		return nil, line, false, &water.InputError{File: file, Line: line, Err: err}
+	}
+	if strict && len(rec) != ncol {
+		return nil, line, false, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%d fields, want %d", len(rec), ncol)}
+	}
+	return rec, line, true, nil
+}
+
 var tableHeader = []string{"name", "phase", "formula", "equation", "log_k_25", "delta_h_kj",
 	"a1", "a2", "a3", "a4", "a5", "a6", "t_min_c", "t_max_c", "ion_size", "b_tj", "source"}
 
@@ -191,17 +209,12 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 		}
 	}
 	for {
-		rec, err := cr.Read()
-		if errors.Is(err, io.EOF) {
-			break
-		}
-		line, _ := cr.FieldPos(0)
+		rec, line, ok, err := nextRecord(cr, file, ncol, true)
 		if err != nil {
-			return nil, &water.InputError{File: file, Line: line, Err: err}
+			return nil, err
 		}
-		if len(rec) != ncol {
-			return nil, &water.InputError{File: file, Line: line,
-				Err: fmt.Errorf("%d fields, want %d", len(rec), ncol)}
+		if !ok {
+			break
 		}
 		e, err := parseEntry(rec, col, file, line)
 		if err != nil {
