@@ -4,10 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
-
-	"gonum.org/v1/gonum/blas"
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack/lapack64"
+	"slices"
 
 	"scalerisk/water"
 )
@@ -96,6 +93,8 @@ type Solver struct {
 	abStart   []int
 	abSpecies []int
 	abNuH     []float64
+	abVars    []int // the unknowns the lists were built for
+	abValid   bool
 
 	// fixedScale scales the alkalinity and charge rows: the equivalents of
 	// the totals, fixed for one solve so the residuals stay smooth.
@@ -427,6 +426,11 @@ func (s *Solver) initialGuess() {
 // acidBase lists, for each unknown master, the live species made of that
 // master (coefficient 1), H[+] and H2O: its acid–base forms.
 func (s *Solver) acidBase() {
+	if s.abValid && slices.Equal(s.abVars, s.vars) {
+		return // the same unknowns, so the same live species
+	}
+	s.abVars = append(s.abVars[:0], s.vars...)
+	s.abValid = true
 	m := s.m
 	s.abStart = s.abStart[:0]
 	s.abSpecies = s.abSpecies[:0]
@@ -774,7 +778,6 @@ func (s *Solver) newton() error {
 	// iteration is reused (a chord step): the last iterations then cost a
 	// residual and a back-substitution instead of a Jacobian and an LU.
 	factored, prevMax := false, math.Inf(1)
-	a := blas64.General{Rows: n, Cols: n, Stride: n, Data: s.J[:n*n]}
 	// Under Pitzer the activity coefficients are refreshed from the
 	// molalities at the top of every iteration and held during the step;
 	// the solve has converged when the residuals and the refresh both are.
@@ -804,14 +807,14 @@ func (s *Solver) newton() error {
 		for k := 0; k < n; k++ {
 			s.dx[k] = -s.R[k]
 		}
-		if !chord {
-			if ok := lapack64.Getrf(a, s.ipiv[:n]); !ok {
+		if chord {
+			solveFactored(s.J[:n*n], s.dx[:n], s.ipiv[:n], n)
+		} else {
+			if ok := solveLinear(s.J[:n*n], s.dx[:n], s.ipiv[:n], n); !ok {
 				return fmt.Errorf("%w: singular Jacobian (a component may be fixed twice)", ErrNoConvergence)
 			}
 			factored = true
 		}
-		b := blas64.General{Rows: n, Cols: 1, Stride: 1, Data: s.dx[:n]}
-		lapack64.Getrs(blas.NoTrans, a, b, s.ipiv[:n])
 		// Limit the step to a factor of 10 in any molality, in I or in a_w.
 		var big float64
 		for k := 0; k < n; k++ {
