@@ -942,7 +942,7 @@ func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) str
 			"times%s, carbonate system %s.%s", num(sw.maxCycles, 1), forced, rule, mark)
 	}
 	return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate system closed "+
-		"(no CO₂ lost to air, the higher-pH case).", num(sw.maxCycles, 1), forced)
+		"(no CO₂ exchanged with air; a tower open to air loses CO₂ and runs at a higher pH).", num(sw.maxCycles, 1), forced)
 }
 
 // doseFinding reads the dose sweep: pH from start to end, and the
@@ -1278,7 +1278,8 @@ func (b *builder) methods() methodsView {
 	}
 	mv.Carbonate = "The measured pH at its measurement temperature and the alkalinity fix the inorganic carbon. " +
 		"At any other temperature, concentration or dose the system is closed: carbon and alkalinity are conserved " +
-		"(changed only by what a reagent adds) and pH is recomputed."
+		"(changed only by what a reagent adds) and pH is recomputed; the highest-cycles search follows its own " +
+		"carbonate rule (--carbonate, natural by default: pH = 1.465·log10(TA) + 4.54 with alkalinity conserved)."
 	if o.Speciation.AtTemperature {
 		mv.Carbonate += fmt.Sprintf(" Every sample was evaluated at %s °C, as asked.", num(o.Speciation.Temperature, 1))
 	}

@@ -72,7 +72,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.Float64Var(&o.maxDose, "max-dose", 0, "end of the dose axis, mg/L of product (default: 80 % of the alkalinity neutralised)")
 	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
 	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
-	f.StringVar(&o.carbonate, "carbonate", "closed", "carbonate rule of the highest-cycles search: closed, air, ph=VALUE, natural or relation=A,B")
+	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
 	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts (0: all); the others are in the summary")
 	return cmd
 }
