@@ -37,11 +37,15 @@ func newRootCmd(stdin io.Reader) *cobra.Command {
 		Short: "Mineral-scale risk of waters from laboratory analyses",
 		Long: "scalerisk reads laboratory analyses of waters (CSV, in the units of the trade), checks\n" +
 			"their quality, computes ionic strength, activity coefficients, the aqueous speciation and\n" +
-			"the saturation index of calcite, gypsum, barite, celestite, silica and other minerals.\n\n" +
+			"the saturation index of calcite, gypsum, barite, celestite, silica and other minerals, then\n" +
+			"answers the treatment questions: how risk moves with temperature, cycles, dosing and blending\n" +
+			"(sweep), the dose that reaches a target (dose), the highest cycles under a limit profile\n" +
+			"(cycles), what a blend does (blend), and a self-contained HTML report for a client (report).\n\n" +
 			reports.Caution,
 		SilenceUsage:  true,
 		SilenceErrors: true,
 	}
+	root.CompletionOptions.DisableDefaultCmd = true
 	root.AddCommand(newAssessCmd(stdin), newMineralsCmd(), newReportCmd(stdin))
 	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin))
 	return root
