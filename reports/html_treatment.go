@@ -29,7 +29,8 @@ type Treatment struct {
 	// CyclesRule names the carbonate rule Cycles was computed under, in
 	// words ("closed", "air", "ph=7.8").
 	CyclesRule string
-	// Blends lists blends of the sample with other waters.
+	// Blends lists blends of the sample with other waters (report
+	// --blend-with).
 	Blends []BlendAnswer
 	// Notes are remarks on the searches a reader should see, shown as
 	// given.

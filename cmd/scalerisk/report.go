@@ -29,6 +29,8 @@ type reportOptions struct {
 	limits          string
 	carbonate       string
 	detail          int
+	blendWith       string
+	blendFraction   float64
 }
 
 func newReportCmd(stdin io.Reader) *cobra.Command {
@@ -74,6 +76,8 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
 	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
 	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts (0: all); the others are in the summary")
+	f.StringVar(&o.blendWith, "blend-with", "", "CSV file whose first sample is blended with each water (shown in the report)")
+	f.Float64Var(&o.blendFraction, "blend-fraction", 0.5, "share of each sample in the blend with --blend-with, 0–1 by volume")
 	return cmd
 }
 
@@ -121,6 +125,18 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		profile = &p
 	}
 
+	var partner *water.Analysis
+	if o.blendWith != "" {
+		if !(o.blendFraction >= 0 && o.blendFraction <= 1) {
+			return badInput(fmt.Errorf("--blend-fraction %g: want a share from 0 to 1", o.blendFraction))
+		}
+		p, err := firstSample(o.blendWith, stdin, ropt)
+		if err != nil {
+			return err
+		}
+		partner = &p
+	}
+
 	files, problems, err := o.common.read(cmd, args, stdin, ropt)
 	if err != nil {
 		return err
@@ -139,12 +155,20 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		rep.Inputs = append(rep.Inputs, f.name)
 		for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
 			s := reports.ReportSample{Assessment: a}
-			if a.Err != nil && !a.BadInput {
+			switch {
+			case a.Err == nil:
+			case errors.Is(a.Err, saturation.ErrInconsistent):
+				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
+				problems++
+			case !a.BadInput:
 				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
 				failures++
 			}
-			if a.Result != nil && (target != nil || profile != nil) {
+			if a.Result != nil && (target != nil || profile != nil || partner != nil) {
 				s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
+				if partner != nil {
+					s.Treatment.Blends = append(s.Treatment.Blends, blendOf(a, *partner, o.blendFraction, opt))
+				}
 			}
 			rep.Samples = append(rep.Samples, s)
 		}
@@ -164,6 +188,17 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, len(rep.Samples))
 	}
 	return finish(problems, failures)
+}
+
+// blendOf blends the sample with the partner water at fraction f (the
+// sample's share) and speciates the blend.
+func blendOf(a saturation.Assessment, partner water.Analysis, f float64, opt saturation.Options) reports.BlendAnswer {
+	ans := reports.BlendAnswer{Partner: partner.Name, Fraction: f}
+	w, err := saturation.BlendWaters([]water.Analysis{a.Input, partner}, []float64{f, 1 - f}, opt)
+	if err == nil {
+		ans.Result, _ = saturation.Speciate(w, opt)
+	}
+	return ans
 }
 
 // treatmentOf runs the treatment searches of one sample: the dose of

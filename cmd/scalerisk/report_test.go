@@ -186,3 +186,18 @@ func TestReportHelp(t *testing.T) {
 		t.Error("report --help offers --format, which does not apply to HTML")
 	}
 }
+
+// TestReportBlend: --blend-with adds a blend table to each sample's
+// treatment part, computed from totals.
+func TestReportBlend(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "blend.html")
+	mustRun(t, 0, "", "report", "--demo", "--blend-with", demoCSV, "--blend-fraction", "0.7", "-o", out)
+	b, err := os.ReadFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := strings.Count(string(b), "Blend: 70 % of this water with 30 % of Kestrel Fen makeup well 2"); n != len(demoSamples) {
+		t.Errorf("%d blend tables, want one per sample (%d)", n, len(demoSamples))
+	}
+	mustRun(t, 2, "", "report", "--demo", "--blend-with", demoCSV, "--blend-fraction", "2", "-o", out)
+}
