@@ -109,18 +109,24 @@ func WriteDoses(w io.Writer, f Format, ds []DoseOutcome) error {
 		}
 		r := d.Result
 		if r.Reached {
-			fmt.Fprintf(&b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, r.Target.Kind, r.Target.Value)
+			fmt.Fprintf(&b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, targetWords(r.Target), r.Target.Value)
 			if d.Flow > 0 {
 				fmt.Fprintf(&b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
 			}
 			b.WriteString(".\n")
+		} else if len(r.Warnings) > 0 {
+			fmt.Fprintf(&b, "%s: %s.\n", d.Name, r.Warnings[0])
 		} else {
 			fmt.Fprintf(&b, "%s: %s does not reach %s.\n", d.Name, r.Reagent.Name, r.Target)
 		}
 		writeOutcomeChange(&b, r.Before, r.After)
-		if len(r.Warnings) > 0 {
+		notes := r.Warnings
+		if !r.Reached && len(notes) > 0 {
+			notes = notes[1:] // the first said it above
+		}
+		if len(notes) > 0 {
 			b.WriteString("  Notes\n")
-			for _, wn := range r.Warnings {
+			for _, wn := range notes {
 				fmt.Fprintf(&b, "    - %s\n", wn)
 			}
 		}
@@ -128,6 +134,18 @@ func WriteDoses(w io.Writer, f Format, ds []DoseOutcome) error {
 	b.WriteString("\n" + wrap(DoseCaution, 78) + "\n")
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// targetWords names a target's quantity for a sentence: "pH", "LSI",
+// "the SI of calcite".
+func targetWords(t saturation.Target) string {
+	switch t.Kind {
+	case "ph":
+		return "pH"
+	case "si":
+		return "the SI of " + t.Mineral
+	}
+	return strings.ToUpper(t.Kind)
 }
 
 // DoseCaution is the caution every dose answer carries.
@@ -306,7 +324,7 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 			fmt.Fprintf(&b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",
 				c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), c.Carbonate)
 		case r.Limiting == "":
-			fmt.Fprintf(&b, "%s: no %s limit is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
+			fmt.Fprintf(&b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
 		default:
 			l, _ := r.Profile.Lookup(r.Limiting)
 			fmt.Fprintf(&b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate); %s reaches its limit of %g there.\n",

@@ -859,7 +859,7 @@ func (b *builder) findings(s ReportSample, sw *sweepSet) []string {
 		out = append(out, passFindings(sw.cycles, func(x float64) string { return num(x, 1) + " cycles" },
 			fmt.Sprintf("when concentrated up to %s cycles", num(sw.maxCycles, 0)))...)
 	}
-	out = append(out, b.doseFinding(sw)...)
+	out = append(out, b.doseFinding(s, sw)...)
 	return append(out, b.qualityFinding(s)...)
 }
 
@@ -947,7 +947,23 @@ func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) str
 
 // doseFinding reads the dose sweep: pH from start to end, and the
 // minerals whose SI rises with the dose.
-func (b *builder) doseFinding(sw *sweepSet) []string {
+func (b *builder) doseFinding(s ReportSample, sw *sweepSet) []string {
+	var out []string
+	// The answer first: the dose to the target, when it was asked for.
+	if s.Treatment != nil && s.Treatment.Dose != nil {
+		d := s.Treatment.Dose
+		switch {
+		case d.Reached && d.Dose > 0:
+			out = append(out, fmt.Sprintf("The dose to %s is %s mg/L of %s (%s %%): pH %s → %s.",
+				d.Target, num(d.Dose, 1), d.Reagent.Label, num(d.Strength, 0), num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
+		case d.Reached:
+			out = append(out, fmt.Sprintf("No %s is needed for %s: the water is already there.", d.Reagent.Label, d.Target))
+		default:
+			out = append(out, fmt.Sprintf("No dose of %s is needed or useful for %s: the water is already on the target's side, or the reagent cannot reach it.",
+				d.Reagent.Label, d.Target))
+		}
+	}
+	// Then what the dose chart shows across its range, said as a range.
 	var first, last *saturation.Result
 	var lastX float64
 	for _, p := range sw.dose {
@@ -960,9 +976,8 @@ func (b *builder) doseFinding(sw *sweepSet) []string {
 		last, lastX = p.Result, p.X
 	}
 	if first == nil || last == first {
-		return nil
+		return out
 	}
-	s := fmt.Sprintf("%s mg/L of %s takes pH from %s to %s", num(lastX, 0), b.reagent.Label, num(first.PH, 2), num(last.PH, 2))
 	var falls, rises []string
 	for _, m := range sw.minerals {
 		a, ok1 := first.SI(m.Name)
@@ -978,13 +993,15 @@ func (b *builder) doseFinding(sw *sweepSet) []string {
 			rises = append(rises, change)
 		}
 	}
+	line := fmt.Sprintf("Across the dose chart (0 to %s mg/L of %s, the end of the chart, not a recommendation) pH goes from %s to %s",
+		num(lastX, 0), b.reagent.Label, num(first.PH, 2), num(last.PH, 2))
 	if len(falls) > 0 {
-		s += "; SI falls for " + strings.Join(falls, ", ")
+		line += "; SI falls for " + strings.Join(falls, ", ")
 	}
 	if len(rises) > 0 {
-		s += "; SI rises for " + strings.Join(rises, ", ") + " (a side effect to watch)"
+		line += "; SI rises for " + strings.Join(rises, ", ") + " (a side effect to watch)"
 	}
-	return []string{s + "."}
+	return append(out, line+".")
 }
 
 func (b *builder) qualityFinding(s ReportSample) []string {

@@ -87,19 +87,23 @@ func InhibitorReach(mineral string) (Reach, bool) {
 }
 
 // RiskBand returns the plain-word band of saturation index si of mineral:
-// undersaturated below −0.2, near equilibrium to +0.2, and above that
+// undersaturated below −0.2, near equilibrium to +0.2 (or to the inhibitor
+// limit where that is lower), and above that
 // "slow to form" for minerals that rarely scale at these temperatures,
 // "within inhibitor reach" up to the inhibitor profile's limit,
 // "beyond inhibitor reach" above it, and plain "supersaturated" where the
 // profile gives no figure.
 func RiskBand(mineral string, si float64) Band {
-	switch {
-	case si < -nearEquilibrium:
+	if si < -nearEquilibrium {
 		return Undersaturated
-	case si <= nearEquilibrium:
-		return NearEquilibrium
 	}
 	r, ok := InhibitorReach(mineral)
+	limited := ok && !r.Slow && !math.IsNaN(r.MaxSI)
+	if si <= nearEquilibrium && !(limited && si > r.MaxSI) {
+		// Near equilibrium, unless the inhibitor limit is tighter than the
+		// band (amorphous silica: +0.18).
+		return NearEquilibrium
+	}
 	switch {
 	case ok && r.Slow:
 		return SlowToForm

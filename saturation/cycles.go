@@ -20,9 +20,9 @@ type CarbonateRule struct {
 	// and a trade glossary; common practice).
 	A, B float64
 	// SetPoint, when above 0, is an acid-controlled pH: at each cycle the
-	// dose of Reagent that brings the water, open to air, to SetPoint is
-	// added (none where the water is already at or below it); its sulfate
-	// or chloride comes with it.
+	// dose of Reagent that brings the alkalinity to what the natural tower
+	// relation gives for SetPoint is added (none where the water is already
+	// at or below it), with its sulfate or chloride.
 	SetPoint float64
 	Reagent  water.Reagent
 }
@@ -38,13 +38,13 @@ func ParseCarbonateRule(s string) (CarbonateRule, error) {
 	case s == "air":
 		r.Mode = FixedPCO2
 	case s == "natural":
-		r.Mode, r.A, r.B = FixedPHAlkalinity, 1.465, 4.54
+		r.Mode, r.A, r.B = FixedPHAlkalinity, naturalA, naturalB
 	case strings.HasPrefix(s, "ph="):
 		v, err := water.ParseNumber(strings.TrimPrefix(s, "ph="))
 		if err != nil || v < 2 || v > 12 {
 			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want ph= a set point from 2 to 12", s)
 		}
-		r.Mode, r.SetPoint = FixedPCO2, v
+		r.Mode, r.SetPoint = FixedPHAlkalinity, v
 		acid, err := water.LookupReagent("h2so4")
 		if err != nil {
 			return CarbonateRule{}, err
@@ -88,25 +88,53 @@ func (c CarbonateRule) options(w water.Analysis, opt Options) (Options, error) {
 	return o, nil
 }
 
-// apply speciates w under the rule: for a set point, after the dose of acid
-// that holds it (returned, mg/L of product; 0 when none is needed).
+// naturalA and naturalB are the coefficients of the natural tower relation
+// pH = 1.465·log10(TA) + 4.54 (Puckorius & Brooke 1991; common practice).
+const (
+	naturalA = 1.465
+	naturalB = 4.54
+)
+
+// apply speciates w under the rule. For a set point it first adds the dose
+// of acid (returned, mg/L of product; 0 when none is needed) that brings
+// the alkalinity down to the value the natural tower relation gives for
+// the set point — TA = 10^((pH − 4.54)/1.465) — the way an acid feed on pH
+// control settles a tower; pH then sits at the set point, alkalinity is
+// conserved and carbon follows.
 func (c CarbonateRule) apply(sp *Speciator, w water.Analysis, opt Options) (*Result, water.Analysis, float64, error) {
-	o, err := c.options(w, opt)
-	if err != nil {
-		return nil, w, 0, err
-	}
-	r, err := sp.Speciate(w, o)
-	if err != nil || c.SetPoint == 0 || r.PH <= c.SetPoint {
+	if c.SetPoint == 0 {
+		o, err := c.options(w, opt)
+		if err != nil {
+			return nil, w, 0, err
+		}
+		r, err := sp.Speciate(w, o)
 		return r, w, 0, err
 	}
-	d, err := DoseToTarget(w, c.Reagent, 0, Target{Kind: "ph", Value: c.SetPoint}, o)
+	o := opt
+	o.Carbonate = FixedPHAlkalinity
+	ta := w.AlkalinityAsCaCO3()
+	if !(ta > 0) {
+		return nil, w, 0, fmt.Errorf("%w: the %s rule needs a positive alkalinity", ErrInconsistent, c.Name)
+	}
+	taSet := math.Pow(10, (c.SetPoint-naturalB)/naturalA)
+	if ta <= taSet {
+		// Already at or below the set point: no acid, the natural pH.
+		o.PH = naturalA*math.Log10(ta) + naturalB
+		r, err := sp.Speciate(w, o)
+		return r, w, 0, err
+	}
+	per := -c.Reagent.AlkalinityFactor(0) // mg/L as CaCO3 removed per mg/L of product
+	if !(per > 0) {
+		return nil, w, 0, fmt.Errorf("%s is not an acid: it cannot hold pH %g", c.Reagent.Name, c.SetPoint)
+	}
+	dose := (ta - taSet) / per
+	dosed, err := w.Dose(c.Reagent, dose, 0)
 	if err != nil {
 		return nil, w, 0, err
 	}
-	if !d.Reached {
-		return nil, w, 0, fmt.Errorf("%s cannot hold pH %g: %s", c.Reagent.Name, c.SetPoint, strings.Join(d.Warnings, "; "))
-	}
-	return d.After.Result, d.After.Water, d.Dose, nil
+	o.PH = c.SetPoint
+	r, err := sp.Speciate(dosed, o)
+	return r, dosed, dose, err
 }
 
 // CyclePoint is the water at one number of cycles.

@@ -243,3 +243,27 @@ func TestCyclesAcidControl(t *testing.T) {
 	}
 	t.Logf("acid control at pH 7.5: max %.2f cycles, limiting %s", r.MaxCycles, r.Limiting)
 }
+
+// TestRiskBandEdges: the bands follow the inhibitor limits, and a limit
+// tighter than the near-equilibrium band wins (amorphous silica +0.18).
+func TestRiskBandEdges(t *testing.T) {
+	tests := []struct {
+		mineral string
+		si      float64
+		want    Band
+	}{
+		{"calcite", -0.5, Undersaturated},
+		{"calcite", 0.1, NearEquilibrium},
+		{"calcite", 1.0, WithinReach},
+		{"calcite", 2.0, BeyondReach},
+		{"silica_amorphous", 0.15, NearEquilibrium},
+		{"silica_amorphous", 0.19, BeyondReach},
+		{"quartz", 1.0, SlowToForm},
+		{"strontianite", 0.5, Supersaturated},
+	}
+	for _, tc := range tests {
+		if got := RiskBand(tc.mineral, tc.si); got != tc.want {
+			t.Errorf("RiskBand(%s, %+.2f) = %s, want %s", tc.mineral, tc.si, got, tc.want)
+		}
+	}
+}

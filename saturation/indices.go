@@ -55,7 +55,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	alk := a.Alkalinity * wpl      // eq/L
 	var warnings []string
 	if !(alk > minIndexAlkalinity) {
-		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %g mg/L as CaCO3", minIndexAlkalinity*1000*water.EquivalentMassCaCO3)}
+		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %.1f mg/L as CaCO3", minIndexAlkalinity*1000*water.EquivalentMassCaCO3)}
 	}
 	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
 		ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk

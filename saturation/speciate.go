@@ -272,6 +272,10 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 	carbon := a.Totals[water.C]
 	carbonKnown := a.CarbonKnown
 
+	if !hasAlk && !carbonKnown && a.Totals[water.Ca]+a.Totals[water.Mg] > 0 {
+		warnings = append(warnings, "no alkalinity or inorganic carbon reported: calcium carbonate and the other carbonate minerals are not assessed")
+	}
+
 	// Step 1: fix carbon (or alkalinity) at the pH measurement temperature.
 	var fixed bool
 	var fixedProblem problem

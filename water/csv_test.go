@@ -706,7 +706,8 @@ func TestCSVAnalyteFormMass(t *testing.T) {
 		"SO4": {"SO4", 1}, "SO4-S": {"S", 1}, "NO3": {"NO3", 1}, "NO3-N": {"N", 1},
 		"SiO2": {"SiO2", 1}, "Si": {"Si", 1}, "PO4": {"PO4", 1}, "PO4-P": {"P", 1},
 		"DIC": {"C", 1}, "CO2": {"CO2", 1}, "HCO3": {"HCO3", 1}, "CO3": {"CO3", 1}, "OH": {"OH", 1},
-		"alkalinity": {"CaCO3", 2}, // the equivalent weight of CaCO3
+		"alkalinity":  {"CaCO3", 2},                              // the equivalent weight of CaCO3
+		"Ca-hardness": {"CaCO3", 1}, "Mg-hardness": {"CaCO3", 1}, // hardness as CaCO3
 	}
 	const tol = 0.01 // g/mol
 	for _, a := range water.Analytes().All() {

@@ -3,6 +3,7 @@ package water
 import (
 	"fmt"
 	"math"
+	"strconv"
 	"strings"
 	"sync"
 
@@ -397,7 +398,7 @@ func qualityFlag(c QualityCriterion, v float64) string {
 			hint = "the higher ion sum is suspect"
 		}
 	}
-	return fmt.Sprintf("%s = %.3g, outside %s: %s", c.Check, v, c.Limit, hint)
+	return fmt.Sprintf("%s = %s, outside %s: %s", c.Check, strconv.FormatFloat(v, 'f', 3, 64), c.Limit, hint)
 }
 
 // ionSums accumulates the ions of one sign for onsagerConductivity.
