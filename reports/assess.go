@@ -22,19 +22,19 @@ type SampleJSON struct {
 	Name                 string              `json:"name"`
 	File                 string              `json:"file,omitempty"`
 	Line                 int                 `json:"line,omitempty"`
-	TemperatureC         *float64            `json:"temperature_c,omitempty"`
-	PH                   *float64            `json:"ph,omitempty"`
-	ActivityModel        string              `json:"activity_model,omitempty"`
-	IonicStrength        *float64            `json:"ionic_strength,omitempty"`
-	ChargeBalancePercent *float64            `json:"charge_balance_percent,omitempty"`
+	TemperatureC         *float64            `json:"temperature_c"`
+	PH                   *float64            `json:"ph"`
+	ActivityModel        *string             `json:"activity_model"`
+	IonicStrength        *float64            `json:"ionic_strength"`
+	ChargeBalancePercent *float64            `json:"charge_balance_percent"`
 	AlkalinityMeqPerKg   *float64            `json:"alkalinity_meq_per_kg,omitempty"`
 	LogPCO2              *float64            `json:"log_pco2,omitempty"`
-	SaturationIndex      map[string]float64  `json:"saturation_index,omitempty"`
+	SaturationIndex      map[string]float64  `json:"saturation_index"`
 	RiskBand             map[string]string   `json:"risk_band,omitempty"`
-	Indices              *IndicesJSON        `json:"indices,omitempty"`
+	Indices              *IndicesJSON        `json:"indices"`
 	Precipitation        []PrecipitationJSON `json:"precipitation,omitempty"`
-	Species              []SpeciesJSON       `json:"species,omitempty"`
-	Totals               map[string]float64  `json:"totals,omitempty"`
+	Species              []SpeciesJSON       `json:"species"`
+	Totals               map[string]float64  `json:"totals"`
 	Quality              *QualityJSON        `json:"quality,omitempty"`
 	BelowDetection       []string            `json:"below_detection,omitempty"`
 	Warnings             []string            `json:"warnings"`
@@ -44,13 +44,13 @@ type SampleJSON struct {
 // IndicesJSON holds the classic indices; a key is left out where the
 // water lacks what the index needs.
 type IndicesJSON struct {
-	LSI           *float64 `json:"lsi,omitempty"`
-	LSISimplified *float64 `json:"lsi_simplified,omitempty"`
-	RSI           *float64 `json:"rsi,omitempty"`
-	PSI           *float64 `json:"psi,omitempty"`
-	StiffDavis    *float64 `json:"stiff_davis,omitempty"`
-	LarsonSkold   *float64 `json:"larson_skold,omitempty"`
-	CCPP          *float64 `json:"ccpp_mg_per_l,omitempty"`
+	LSI           *float64 `json:"lsi"`
+	LSISimplified *float64 `json:"lsi_simplified"`
+	RSI           *float64 `json:"rsi"`
+	PSI           *float64 `json:"psi"`
+	StiffDavis    *float64 `json:"stiff_davis"`
+	LarsonSkold   *float64 `json:"larson_skold"`
+	CCPP          *float64 `json:"ccpp_mg_per_l"`
 	PHs           *float64 `json:"phs,omitempty"`
 }
 
@@ -147,7 +147,8 @@ func Sample(as saturation.Assessment) SampleJSON {
 	s.Totals = totals(r.Analysis)
 	s.TemperatureC = optional(r.Temperature, func(x float64) float64 { return dec(x, 2) })
 	s.PH = optional(r.PH, func(x float64) float64 { return dec(x, 3) })
-	s.ActivityModel = r.Activity.String()
+	model := r.Activity.String()
+	s.ActivityModel = &model
 	s.IonicStrength = optional(r.IonicStrength, func(x float64) float64 { return sig(x, 4) })
 	s.AlkalinityMeqPerKg = optional(1000*r.Alkalinity, func(x float64) float64 { return sig(x, 5) })
 	s.LogPCO2 = optional(r.LogPCO2, func(x float64) float64 { return dec(x, 3) })
@@ -271,7 +272,7 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 	for _, a := range as {
 		s := Sample(a)
 		row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
-			fmtG(s.IonicStrength), s.ActivityModel, formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
+			fmtG(s.IonicStrength), strOrBlank(s.ActivityModel), formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
 		ix := s.Indices
 		if ix == nil {
 			ix = &IndicesJSON{}
@@ -303,6 +304,13 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+func strOrBlank(p *string) string {
+	if p == nil {
+		return ""
+	}
+	return *p
 }
 
 func fmtG(p *float64) string {

@@ -223,6 +223,16 @@ type CyclesPointJSON struct {
 	Error           *string            `json:"error,omitempty"`
 }
 
+// cyclesTemperature is the temperature the cycles search evaluated at.
+func cyclesTemperature(r *saturation.CyclesResult) float64 {
+	for _, p := range r.Points {
+		if p.Result != nil {
+			return p.Result.Temperature
+		}
+	}
+	return math.NaN()
+}
+
 // CyclesOutcome is the cycles answer for one sample.
 type CyclesOutcome struct {
 	Name        string
@@ -286,15 +296,16 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 		}{js, Caution})
 	case CSV:
 		cw := csv.NewWriter(w)
-		cw.Write([]string{"name", "profile", "carbonate", "max_cycles", "limiting", "cycles", "ph", "lsi", "si_calcite", "si_gypsum",
-			"si_barite", "si_celestite", "si_silica_amorphous", "error"})
+		cw.Write([]string{"name", "profile", "carbonate", "max_cycles", "limiting", "makeup_m3_per_h", "blowdown_m3_per_h",
+			"cycles", "acid_mg_per_l", "ph", "lsi", "si_calcite", "si_gypsum", "si_barite", "si_celestite", "si_silica_amorphous", "error"})
 		for _, j := range js {
 			if j.Error != nil {
-				cw.Write([]string{j.Name, j.Profile, j.Carbonate, "", "", "", "", "", "", "", "", "", "", *j.Error})
+				cw.Write([]string{j.Name, j.Profile, j.Carbonate, "", "", "", "", "", "", "", "", "", "", "", "", "", *j.Error})
 				continue
 			}
 			for _, p := range j.Points {
-				row := []string{j.Name, j.Profile, j.Carbonate, fmtF(j.MaxCycles), j.Limiting, fmtF(p.Cycles), fmtG(p.PH), fmtG(p.LSI)}
+				row := []string{j.Name, j.Profile, j.Carbonate, fmtF(j.MaxCycles), j.Limiting, fmtG(j.MakeupM3PerH), fmtG(j.BlowdownM3PerH),
+					fmtF(p.Cycles), fmtG(p.AcidMgPerL), fmtG(p.PH), fmtG(p.LSI)}
 				for _, m := range []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"} {
 					if v, ok := p.SaturationIndex[m]; ok {
 						row = append(row, fmtF(v))
@@ -327,8 +338,8 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 			fmt.Fprintf(&b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
 		default:
 			l, _ := r.Profile.Lookup(r.Limiting)
-			fmt.Fprintf(&b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate); %s reaches its limit of %g there.\n",
-				c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Limiting, l.Max)
+			fmt.Fprintf(&b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there.\n",
+				c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, cyclesTemperature(r), r.Limiting, l.Max)
 		}
 		if c.Evaporation > 0 && r.MaxCycles > 1 {
 			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)

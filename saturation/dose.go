@@ -131,7 +131,7 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 		ix, _ := sp.ClassicIndicesNoCCPP(rr)
 		v, ok := target.Measure(rr, ix)
 		if !ok {
-			return Outcome{}, 0, fmt.Errorf("%s cannot be evaluated for this water", target.Kind)
+			return Outcome{}, 0, fmt.Errorf("%w: %s cannot be evaluated for this water (see the warnings of assess)", ErrInconsistent, target.Kind)
 		}
 		return Outcome{Water: w, Result: rr, Indices: ix}, v - target.Value, nil
 	}

@@ -80,7 +80,9 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	if !math.IsNaN(a.MeasuredTDS) && a.MeasuredTDS > 0 {
 		tds = a.MeasuredTDS
 	}
-	ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*water.EquivalentMassCaCO3, taCaCO3)
+	if r.IonicStrength <= maxLangelierIonicStrength {
+		ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*water.EquivalentMassCaCO3, taCaCO3)
+	}
 	// Stiff–Davis with this engine's γ.
 	var gCa, gHCO3 float64
 	for _, s := range r.Species {

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"io/fs"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -182,7 +183,11 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		err = reports.WriteHTMLFile(o.output, rep)
 	}
 	if err != nil {
-		return &exitError{code: exitInternal, err: fmt.Errorf("writing the report: %w", err)}
+		code := exitInternal
+		if errors.Is(err, fs.ErrPermission) || errors.Is(err, fs.ErrNotExist) {
+			code = exitBadInput // an output path the user cannot write
+		}
+		return &exitError{code: code, err: fmt.Errorf("writing the report: %w", err)}
 	}
 	if o.output != "-" {
 		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, len(rep.Samples))

@@ -118,9 +118,9 @@ func TestReportBadInput(t *testing.T) {
 	if !strings.Contains(string(page), "Samples not computed") {
 		t.Error("the report does not list the bad row")
 	}
-	// Writing into a directory that does not exist is a failure (exit 1)
-	// and leaves nothing behind.
-	mustRun(t, exitInternal, "", "report", "--demo", "-o", filepath.Join(dir, "absent", "r.html"))
+	// Writing into a directory that does not exist is the user's mistake
+	// (exit 2) and leaves nothing behind.
+	mustRun(t, exitBadInput, "", "report", "--demo", "-o", filepath.Join(dir, "absent", "r.html"))
 }
 
 // TestReportFourWaters: a soft water, a seawater-like brine, an acid mine
