@@ -106,9 +106,15 @@ type risk struct {
 func riskOf(name string, si float64) risk {
 	b := saturation.RiskBand(name, si)
 	score := si
-	if b == saturation.WithinReach || b == saturation.BeyondReach {
+	switch b {
+	case saturation.BeyondReach:
 		reach, _ := saturation.InhibitorReach(name)
 		score = si - reach.MaxSI
+	case saturation.Supersaturated:
+		// Without an inhibitor figure a mineral ranks with those within
+		// reach, by its saturation index: it does not outrank a more
+		// supersaturated calcite only for lacking a figure.
+		b = saturation.WithinReach
 	}
 	return risk{b, score}
 }
@@ -121,17 +127,18 @@ func (r risk) compare(o risk) int {
 }
 
 // limiting returns the limiting mineral of a result: among the scale
-// formers (see scaleFormer), the one in the highest risk band, and within
-// that band the one furthest past its inhibitor limit or, for bands that do
-// not compare with the limit, the one with the highest saturation index.
-// ok is false when no mineral qualifies.
+// formers (see scaleFormer) that are not undersaturated, the one in the
+// highest risk band — beyond inhibitor reach first, ranked by the distance
+// past the limit; then supersaturated minerals with or without an
+// inhibitor figure together, ranked by saturation index. ok is false when
+// no mineral qualifies (the water is undersaturated in all of them).
 func limiting(r *saturation.Result) (m saturation.MineralResult, ok bool) {
 	if r == nil {
 		return m, false
 	}
 	var best risk
 	for _, x := range r.Minerals {
-		if !finite(x.SI) || !scaleFormer(x.Name, x.SI) {
+		if !finite(x.SI) || !scaleFormer(x.Name, x.SI) || saturation.RiskBand(x.Name, x.SI) == saturation.Undersaturated {
 			continue
 		}
 		rk := riskOf(x.Name, x.SI)

@@ -175,7 +175,7 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 			limiting = quantityLabel(c.Limiting)
 		}
 		tv.Cycles = []kv{
-			{"Highest cycles of concentration", highest},
+			{"Highest cycles of concentration (this water as makeup)", highest},
 			{"Limited by", limiting},
 			{"Limit profile", c.Profile.Name},
 		}
@@ -188,8 +188,8 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 			}
 		}
 		if len(exceeded) > 0 {
-			tv.CycleNotes = append(tv.CycleNotes, "The water itself is already past the limits for "+
-				strings.Join(exceeded, ", ")+": treat it before concentrating it.")
+			tv.CycleNotes = append(tv.CycleNotes, "Used as a makeup, this water is already past the limits for "+
+				strings.Join(exceeded, ", ")+": it needs treatment before it is concentrated.")
 		}
 		for _, w := range c.Warnings {
 			if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {

@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"html/template"
 	"math"
+	"regexp"
 	"slices"
 	"strconv"
 	"strings"
@@ -349,7 +350,39 @@ func (b *builder) section(index, number int, s ReportSample) sampleView {
 	sv.Scale, sv.ScaleKg = scaleRows(s.Precipitation, s.Flow), s.Flow > 0
 	sv.Treatment = b.treatment(s)
 	b.sectionTail(&sv, s, r)
+	sv.Warnings = append(sv.Warnings, sweepNotes(sw, sv.Warnings)...)
 	return sv
+}
+
+// digits matches the numbers of a note.
+var digits = regexp.MustCompile(`[0-9.]+`)
+
+// sweepNotes returns the warnings of the charts' points (a constant used
+// beyond its fitted temperature range on the way to the skin temperature,
+// say) that the sample's own warnings do not already say, once each.
+func sweepNotes(sw *sweepSet, have []string) []string {
+	seen := map[string]bool{}
+	for _, w := range have {
+		seen[w] = true
+	}
+	var out []string
+	for _, pts := range [][]saturation.Point{sw.temp, sw.cycles, sw.dose} {
+		for _, p := range pts {
+			if p.Result == nil {
+				continue
+			}
+			for _, w := range p.Result.Warnings {
+				// The same note at the next point differs only in its
+				// numbers: keep the first, where it starts to apply.
+				key := digits.ReplaceAllString(w, "#")
+				if !seen[w] && !seen[key] {
+					seen[w], seen[key] = true, true
+					out = append(out, "On the charts, from the first point it applies to: "+w)
+				}
+			}
+		}
+	}
+	return out
 }
 
 // sweepSet is what the charts of one sample show: its saturation state
@@ -917,12 +950,12 @@ func cyclesFinding(c *saturation.CyclesResult, rule string) string {
 		for _, q := range c.Exceeded {
 			names = append(names, quantityLabel(q))
 		}
-		return fmt.Sprintf("The water is already past the %s for %s: treat it before concentrating it.",
+		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past the %s for %s: it needs treatment before it is concentrated.",
 			where, strings.Join(names, ", "))
 	case c.Limiting == "":
-		return fmt.Sprintf("Highest cycles of concentration: no limit is reached up to %s cycles (%s).", num(c.MaxCycles, 1), where)
+		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).", num(c.MaxCycles, 1), where)
 	}
-	return fmt.Sprintf("Highest cycles of concentration: %s, set by %s (%s).", num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
+	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s (%s).", num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
 }
 
 // cyclesCaption describes the cycles chart.
@@ -958,9 +991,11 @@ func (b *builder) doseFinding(s ReportSample, sw *sweepSet) []string {
 				d.Target, num(d.Dose, 1), d.Reagent.Label, num(d.Strength, 0), num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
 		case d.Reached:
 			out = append(out, fmt.Sprintf("No %s is needed for %s: the water is already there.", d.Reagent.Label, d.Target))
+		case len(d.Warnings) > 0:
+			w := d.Warnings[0]
+			out = append(out, "Dose to "+d.Target.String()+": "+sentence(w))
 		default:
-			out = append(out, fmt.Sprintf("No dose of %s is needed or useful for %s: the water is already on the target's side, or the reagent cannot reach it.",
-				d.Reagent.Label, d.Target))
+			out = append(out, fmt.Sprintf("%s does not reach %s.", d.Reagent.Label, d.Target))
 		}
 	}
 	// Then what the dose chart shows across its range, said as a range.
