@@ -102,6 +102,11 @@ type HTMLOptions struct {
 	// 100 mg/L when that is not defined, as for CO2 or a water without
 	// alkalinity).
 	MaxDose float64
+	// CyclesRule, when set, is the carbonate rule of the cycles chart and of
+	// the temperature × cycles map (as of the highest-cycles search), so
+	// that every cycles figure of a sample follows one rule; nil means the
+	// closed system.
+	CyclesRule *saturation.CarbonateRule
 	// Detail is how many samples, in input order, get a full section with
 	// charts; the others appear in the summary tables only. A sample whose
 	// equilibrium could not be computed counts too: its section gives the

@@ -440,7 +440,7 @@ func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
 		}
 	} else {
 		sw.cycles, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryCycles,
-			Values: saturation.Range(1, sw.maxCycles, cyclePoints)}, nil, opt)
+			Values: saturation.Range(1, sw.maxCycles, cyclePoints), Rule: b.o.CyclesRule}, nil, opt)
 		if err != nil {
 			sw.err = err
 			return sw
@@ -459,7 +459,7 @@ func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
 	sw.gridT = saturation.Range(sw.bulk, sw.hot, gridSide)
 	sw.gridC = saturation.Range(1, sw.maxCycles, gridSide)
 	sw.grid, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryTemperature, Values: sw.gridT},
-		&saturation.Axis{Var: saturation.VaryCycles, Values: sw.gridC}, opt)
+		&saturation.Axis{Var: saturation.VaryCycles, Values: sw.gridC, Rule: b.o.CyclesRule}, opt)
 	if err != nil {
 		sw.err = err
 		return sw
@@ -973,6 +973,10 @@ func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) str
 		}
 		return fmt.Sprintf("The points of the highest-cycles search: every dissolved constituent concentrated 1 to %s "+
 			"times%s, carbonate system %s.%s", num(sw.maxCycles, 1), forced, rule, mark)
+	}
+	if r := b.o.CyclesRule; r != nil && r.Name != "closed" {
+		return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate rule %s.",
+			num(sw.maxCycles, 1), forced, r.Name)
 	}
 	return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate system closed "+
 		"(no CO₂ exchanged with air; a tower open to air loses CO₂ and runs at a higher pH).", num(sw.maxCycles, 1), forced)

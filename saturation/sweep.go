@@ -44,6 +44,10 @@ type Axis struct {
 	// Partner is the second water of VaryFraction; Values are the share of
 	// the swept water.
 	Partner water.Analysis
+	// Rule, when set on a VaryCycles axis, finds the carbonate state of
+	// each concentrated water as MaxCycles does (natural, relation, air,
+	// acid control or closed) instead of Options.Carbonate.
+	Rule *CarbonateRule
 }
 
 // Point is one point of a sweep: the values of the axes (Y is NaN for a
@@ -174,7 +178,11 @@ func sweepPoints(sp *Speciator, base, partner water.Analysis, x Axis, y *Axis, y
 			}
 			w, o, err := applySettings(base, partner, settings, x, y, opt)
 			if err == nil {
-				pt.Result, err = sp.Speciate(w, o)
+				if rule := cyclesRule(x, y); rule != nil {
+					pt.Result, _, _, err = rule.apply(sp, w, o)
+				} else {
+					pt.Result, err = sp.Speciate(w, o)
+				}
 			}
 			if err == nil {
 				pt.Indices, _ = sp.ClassicIndicesNoCCPP(pt.Result)
@@ -184,6 +192,17 @@ func sweepPoints(sp *Speciator, base, partner water.Analysis, x Axis, y *Axis, y
 		}
 	}
 	return points
+}
+
+// cyclesRule returns the carbonate rule of the sweep's cycles axis, if any.
+func cyclesRule(x Axis, y *Axis) *CarbonateRule {
+	if x.Var == VaryCycles && x.Rule != nil {
+		return x.Rule
+	}
+	if y != nil && y.Var == VaryCycles && y.Rule != nil {
+		return y.Rule
+	}
+	return nil
 }
 
 // applySettings transforms the fixed water by the settings of one sweep

@@ -223,10 +223,13 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 				return badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
 			}
 			rule, err := saturation.ParseCarbonateRule(carbonate)
-			if err != nil || rule.A != 0 || rule.SetPoint != 0 {
-				return badInput(errors.New("--carbonate for sweep: closed or air"))
+			if err != nil {
+				return badInput(err)
 			}
-			opt.Carbonate = rule.Mode
+			towerRule := rule.A != 0 || rule.SetPoint != 0
+			if !towerRule {
+				opt.Carbonate = rule.Mode
+			}
 			axes := make([]saturation.Axis, len(vary))
 			for i, v := range vary {
 				if axes[i], err = parseAxis(v); err != nil {
@@ -245,6 +248,17 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 						return err
 					}
 					axes[i].Partner = pw
+				}
+			}
+			if towerRule {
+				found := false
+				for i := range axes {
+					if axes[i].Var == saturation.VaryCycles {
+						axes[i].Rule, found = &rule, true
+					}
+				}
+				if !found {
+					return badInput(fmt.Errorf("--carbonate %s is a rule for cycles: give --vary cycles=…, or use closed or air", carbonate))
 				}
 			}
 			var y *saturation.Axis
@@ -276,7 +290,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
-	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed or air")
+	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or ph=VALUE (acid control), as in cycles")
 	return cmd
 }
 

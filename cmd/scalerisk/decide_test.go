@@ -227,3 +227,16 @@ func TestAssessCarbonateModes(t *testing.T) {
 	}
 	mustRun(t, 2, "", "assess", "--demo", "--carbonate", "sealed")
 }
+
+// TestSweepFollowsCyclesRule: a cycles sweep under a tower rule gives the
+// same water as the cycles search at the same number of cycles.
+func TestSweepFollowsCyclesRule(t *testing.T) {
+	sw := decodeSamples(t, mustRun(t, 0, "", "sweep", "--demo", "--vary", "cycles=1:3:3", "--carbonate", "natural", "--format", "json").stdout)[0]
+	cy := decodeSamples(t, mustRun(t, 0, "", "cycles", "--demo", "--carbonate", "natural", "--max", "3", "--step", "1", "--format", "json").stdout)[0]
+	sp := sw["points"].([]any)[2].(map[string]any)
+	cp := cy["points"].([]any)[2].(map[string]any)
+	if sp["ph"] != cp["ph"] {
+		t.Errorf("3 cycles, natural rule: sweep pH %v, cycles pH %v", sp["ph"], cp["ph"])
+	}
+	mustRun(t, 2, "", "sweep", "--demo", "--vary", "temperature=20:40:3", "--carbonate", "natural")
+}

@@ -118,6 +118,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if err != nil {
 		return badInput(err)
 	}
+	hopt.CyclesRule = &rule
 	if o.limits != "none" {
 		p, err := loadProfile(o.limits, opt.Model)
 		if err != nil {
