@@ -248,7 +248,7 @@ func (sp *Speciator) jointEquilibrium(r *Result, idx []int, opt Options) ([]floa
 		}
 		return out, nil
 	}
-	for iter := 0; iter < 60; iter++ {
+	for iter := 0; iter < 100; iter++ {
 		f, err := sis(x)
 		if err != nil {
 			return nil, err
@@ -297,26 +297,36 @@ func (sp *Speciator) jointEquilibrium(r *Result, idx []int, opt Options) ([]floa
 		if err := dx.SolveVec(J, rhs); err != nil {
 			return nil, fmt.Errorf("singular system: %w", err)
 		}
-		// Damp so that no total turns negative and no amount below zero
-		// by more than its current value.
+		// A projected step: an amount the step would take below zero stops
+		// at zero (and leaves the active set below), without holding the
+		// others back. The step is halved while a total would turn negative
+		// or, a few times, while it does not bring the active SIs closer to
+		// zero.
 		lambda := 1.0
-		for c, k := range act {
-			if d := dx.AtVec(c); x[k]+d < 0 {
-				if x[k] > 0 {
-					lambda = math.Min(lambda, 0.9*x[k]/-d)
-				}
+		worstAt := func(fs []float64) float64 {
+			w := 0.0
+			for _, k := range act {
+				w = math.Max(w, math.Abs(fs[k]))
 			}
+			return w
 		}
 		for tries := 0; tries < 40; tries++ {
 			xn := slices.Clone(x)
 			for c, k := range act {
 				xn[k] = math.Max(x[k]+lambda*dx.AtVec(c), 0)
 			}
-			if feasible(m, base, idx, xn) {
-				copy(x, xn)
-				break
+			if !feasible(m, base, idx, xn) {
+				lambda /= 2
+				continue
 			}
-			lambda /= 2
+			if tries < 6 {
+				if fn, err := sis(xn); err == nil && worstAt(fn) >= worst {
+					lambda /= 2
+					continue
+				}
+			}
+			copy(x, xn)
+			break
 		}
 		// An amount pinned at zero that still wants to go negative leaves.
 		for c, k := range act {

@@ -181,3 +181,20 @@ func TestRandomWatersFromAlkalinity(t *testing.T) {
 	}
 	t.Logf("%d of 300 waters had pH and alkalinity that do not fit", inconsistent)
 }
+
+// TestRandomJointPrecipitation: the joint precipitation of all readily
+// forming supersaturated minerals converges for random waters.
+func TestRandomJointPrecipitation(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	sp := NewSpeciator(nil)
+	for i := 0; i < 150; i++ {
+		a := randomWater(rng)
+		r, err := sp.Speciate(a, Options{})
+		if err != nil {
+			continue
+		}
+		if _, w := sp.PrecipitationPotential(r, Options{}); strings.Contains(strings.Join(w, " "), "not computed") {
+			t.Errorf("water %d: %v", i, w)
+		}
+	}
+}
