@@ -1,8 +1,6 @@
 package main
 
 import (
-	"errors"
-	"fmt"
 	"io"
 
 	"github.com/spf13/cobra"
@@ -46,15 +44,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			failures := 0
 			for _, f := range files {
 				for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
-					switch {
-					case a.Err == nil:
-					case errors.Is(a.Err, saturation.ErrInconsistent):
-						fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
-						problems++
-					case !a.BadInput:
-						fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
-						failures++
-					}
+					tally(stderr, a, &problems, &failures)
 					all = append(all, a)
 				}
 			}

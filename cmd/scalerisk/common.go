@@ -129,6 +129,21 @@ func readAll(inputs []input, stdin io.Reader, ropt water.ReadOptions, stderr io.
 	return out, problems
 }
 
+// tally reports the error of an assessment on stderr, if it has one not
+// already reported by the reader, and counts it: an inconsistent analysis
+// as bad input, any other as a failure.
+func tally(stderr io.Writer, a saturation.Assessment, problems, failures *int) {
+	switch {
+	case a.Err == nil:
+	case errors.Is(a.Err, saturation.ErrInconsistent):
+		fmt.Fprintf(stderr, "%s:%d: %v\n", a.File, a.Line, a.Err)
+		*problems++
+	case !a.BadInput:
+		fmt.Fprintf(stderr, "%s:%d: %v\n", a.File, a.Line, a.Err)
+		*failures++
+	}
+}
+
 // finish maps the counts of bad input and of failed samples to the exit
 // status: 2 for bad input, else 1 for failures, else success.
 func finish(problems, failures int) error {

@@ -157,15 +157,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		rep.Inputs = append(rep.Inputs, f.name)
 		for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
 			s := reports.ReportSample{Assessment: a}
-			switch {
-			case a.Err == nil:
-			case errors.Is(a.Err, saturation.ErrInconsistent):
-				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
-				problems++
-			case !a.BadInput:
-				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, a.Line, a.Err)
-				failures++
-			}
+			tally(stderr, a, &problems, &failures)
 			if a.Result != nil && (target != nil || profile != nil || partner != nil) {
 				s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
 				if partner != nil {
