@@ -349,16 +349,23 @@ func writeAssessText(w io.Writer, as []saturation.Assessment) error {
 			warnings = append(warnings, a.Result.Warnings...)
 			warnings = append(warnings, a.Warnings...)
 		}
-		if len(warnings) > 0 {
-			b.WriteString("  Notes\n")
-			for _, wn := range warnings {
-				fmt.Fprintf(&b, "    - %s\n", wn)
-			}
-		}
+		writeNotes(&b, warnings)
 	}
 	b.WriteString("\n" + wrap(Caution, 78) + "\n")
 	_, err := io.WriteString(w, b.String())
 	return err
+}
+
+// writeNotes writes notes as an indented list under a "Notes" heading;
+// nothing when there are none.
+func writeNotes(b *strings.Builder, notes []string) {
+	if len(notes) == 0 {
+		return
+	}
+	b.WriteString("  Notes\n")
+	for _, n := range notes {
+		fmt.Fprintf(b, "    - %s\n", n)
+	}
 }
 
 func okWord(pass bool) string {

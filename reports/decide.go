@@ -124,12 +124,7 @@ func WriteDoses(w io.Writer, f Format, ds []DoseOutcome) error {
 		if !r.Reached && len(notes) > 0 {
 			notes = notes[1:] // the first said it above
 		}
-		if len(notes) > 0 {
-			b.WriteString("  Notes\n")
-			for _, wn := range notes {
-				fmt.Fprintf(&b, "    - %s\n", wn)
-			}
-		}
+		writeNotes(&b, notes)
 	}
 	b.WriteString("\n" + wrap(DoseCaution, 78) + "\n")
 	_, err := io.WriteString(w, b.String())

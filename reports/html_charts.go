@@ -180,10 +180,8 @@ func (pc panelChart) option() (map[string]any, error) {
 			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: "#e6e9ee"}},
 		})
 	}
+	line.SetGlobalOptions(staticSVG(pc.ID, pc.height())...)
 	line.SetGlobalOptions(
-		charts.WithInitializationOpts(opts.Initialization{ChartID: pc.ID, Renderer: "svg", Width: "100%",
-			Height: fmt.Sprintf("%dpx", pc.height())}),
-		charts.WithAnimation(false),
 		charts.WithColorsOpts(opts.Colors(palette)),
 		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
 		charts.WithGridOpts(grids...),
@@ -321,6 +319,16 @@ type heatCell struct {
 	Label string // mineral and SI
 }
 
+// staticSVG returns the options every chart of the report shares: drawn as SVG
+// (sharp in print), full width at the given height in pixels, no animation.
+func staticSVG(id string, height int) []charts.GlobalOpts {
+	return []charts.GlobalOpts{
+		charts.WithInitializationOpts(opts.Initialization{ChartID: id, Renderer: "svg", Width: "100%",
+			Height: fmt.Sprintf("%dpx", height)}),
+		charts.WithAnimation(false),
+	}
+}
+
 // heatChart is a temperature × cycles map of the limiting mineral: each
 // cell coloured by its risk band and labelled with the mineral and its SI.
 type heatChart struct {
@@ -335,10 +343,8 @@ func (hc heatChart) height() int { return len(hc.YLabels)*36 + 120 }
 
 func (hc heatChart) option() map[string]any {
 	hm := charts.NewHeatMap()
+	hm.SetGlobalOptions(staticSVG(hc.ID, hc.height())...)
 	hm.SetGlobalOptions(
-		charts.WithInitializationOpts(opts.Initialization{ChartID: hc.ID, Renderer: "svg", Width: "100%",
-			Height: fmt.Sprintf("%dpx", hc.height())}),
-		charts.WithAnimation(false),
 		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
 		charts.WithGridOpts(opts.Grid{Left: "80px", Right: "24px", Top: "16px", Bottom: "96px"}),
 		charts.WithXAxisOpts(opts.XAxis{Type: "category", Data: hc.XLabels, Name: hc.XName, NameLocation: "middle",
@@ -401,10 +407,8 @@ func (cc compositionChart) height() int { return 230 }
 
 func (cc compositionChart) option() map[string]any {
 	bar := charts.NewBar()
+	bar.SetGlobalOptions(staticSVG(cc.ID, cc.height())...)
 	bar.SetGlobalOptions(
-		charts.WithInitializationOpts(opts.Initialization{ChartID: cc.ID, Renderer: "svg", Width: "100%",
-			Height: fmt.Sprintf("%dpx", cc.height())}),
-		charts.WithAnimation(false),
 		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(true), Bottom: "0", ItemWidth: 14, ItemHeight: 10}),
 		charts.WithGridOpts(opts.Grid{Left: "80px", Right: "32px", Top: "12px", Bottom: "84px"}),
 		// Horizontal bars: the categories go on the y axis (XYReversal).

@@ -84,15 +84,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 		ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*water.EquivalentMassCaCO3, taCaCO3)
 	}
 	// Stiff–Davis with this engine's γ.
-	var gCa, gHCO3 float64
-	for _, s := range r.Species {
-		switch s.Name {
-		case "Ca[2+]":
-			gCa = s.Gamma
-		case "HCO3[-]":
-			gHCO3 = s.Gamma
-		}
-	}
+	gCa, gHCO3 := r.Gamma("Ca[2+]"), r.Gamma("HCO3[-]")
 	if gCa > 0 && gHCO3 > 0 {
 		pK2, pKs := carbonateConstants(table, r.Temperature)
 		K := pK2 - pKs - math.Log10(gCa) - math.Log10(gHCO3)

@@ -122,12 +122,23 @@ func (r *Result) SI(name string) (float64, bool) {
 
 // Molality returns the molality of species name, mol/kg (0 when absent).
 func (r *Result) Molality(name string) float64 {
+	return r.species(name).Molality
+}
+
+// Gamma returns the activity coefficient of species name (0 when absent).
+func (r *Result) Gamma(name string) float64 {
+	return r.species(name).Gamma
+}
+
+// species returns the result for species name, or a zero result when the
+// species is absent.
+func (r *Result) species(name string) SpeciesResult {
 	for _, s := range r.Species {
 		if s.Name == name {
-			return s.Molality
+			return s
 		}
 	}
-	return 0
+	return SpeciesResult{}
 }
 
 // Speciator speciates waters with one model, reusing its solver so that a
