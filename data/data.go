@@ -7,20 +7,26 @@ import (
 	"embed"
 	"encoding/csv"
 	"fmt"
+	"io/fs"
 
 	"github.com/gocarina/gocsv"
 )
 
-// FS holds the embedded tables, read by packages water and saturation.
+// tables holds the embedded tables, read by packages water and saturation
+// through Open and Unmarshal.
 //
 //go:embed *.csv
-var FS embed.FS
+var tables embed.FS
+
+// Open opens the embedded table name (for example "thermo.csv") for
+// reading. The tables are read-only.
+func Open(name string) (fs.File, error) { return tables.Open(name) }
 
 // Unmarshal reads the embedded table name (lines starting with # are
 // comments) into out, a pointer to a slice of structs with csv tags, as
 // gocsv.UnmarshalCSV does. Errors name the file.
 func Unmarshal(name string, out any) error {
-	f, err := FS.Open(name)
+	f, err := tables.Open(name)
 	if err != nil {
 		return err
 	}

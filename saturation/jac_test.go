@@ -40,15 +40,15 @@ func TestJacobianFD(t *testing.T) {
 // checkJacobianFD moves s away from its solution, then compares the analytic
 // Jacobian of s.evaluate with forward finite differences in every unknown
 // (the log molalities, ln I and ln a_w), to a relative 1e-4.
-func checkJacobianFD(t *testing.T, s *Solver, label string) {
+func checkJacobianFD(t *testing.T, s *solver, label string) {
 	t.Helper()
 	s.lnm[0] += 0.3
 	s.lnI += 0.1
 	s.lnaw -= 0.01
 	n := len(s.vars) + 2
 	s.evaluate(true)
-	J := slices.Clone(s.J[:n*n])
-	R0 := slices.Clone(s.R[:n])
+	J := slices.Clone(s.jacobian[:n*n])
+	R0 := slices.Clone(s.resid[:n])
 	sc0 := slices.Clone(s.scale[:n])
 	x := func(k int) *float64 {
 		switch k {
@@ -64,7 +64,7 @@ func checkJacobianFD(t *testing.T, s *Solver, label string) {
 		*x(l) += h
 		s.evaluate(false)
 		for k := 0; k < n; k++ {
-			fd := (s.R[k]*s.scale[k]/sc0[k] - R0[k]) / h
+			fd := (s.resid[k]*s.scale[k]/sc0[k] - R0[k]) / h
 			if math.Abs(fd-J[k*n+l]) > 1e-4*(1+math.Abs(fd)) {
 				t.Errorf("%s: J[%d][%d] = %g, fd %g (rows %v vars %v)", label, k, l, J[k*n+l], fd, s.rows, s.vars)
 			}

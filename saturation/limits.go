@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strings"
 	"sync"
 
@@ -119,7 +120,7 @@ func ReadLimits(file string, r io.Reader, m *Model) ([]LimitProfile, error) {
 }
 
 var embeddedLimits = sync.OnceValues(func() ([]LimitProfile, error) {
-	f, err := data.FS.Open("limits.csv")
+	f, err := data.Open("limits.csv")
 	if err != nil {
 		return nil, err
 	}
@@ -127,9 +128,9 @@ var embeddedLimits = sync.OnceValues(func() ([]LimitProfile, error) {
 	return ReadLimits("data/limits.csv", f, DefaultModel())
 })
 
-// Limits returns the embedded limit profiles (data/limits.csv):
-// "no-inhibitor" and "inhibitor".
-func Limits() []LimitProfile {
+// embedded returns the cached embedded profiles; callers must not modify
+// them (Limits and LimitProfileNamed hand out copies).
+func embedded() []LimitProfile {
 	ps, err := embeddedLimits()
 	if err != nil {
 		panic("saturation: embedded limits table is broken: " + err.Error())
@@ -137,12 +138,29 @@ func Limits() []LimitProfile {
 	return ps
 }
 
-// LimitProfileNamed returns the embedded profile called name.
+// Limits returns a copy of the embedded limit profiles (data/limits.csv):
+// "no-inhibitor" and "inhibitor". Changing the copy changes no later call.
+func Limits() []LimitProfile {
+	ps := embedded()
+	out := make([]LimitProfile, len(ps))
+	for i, p := range ps {
+		out[i] = p.clone()
+	}
+	return out
+}
+
+// clone returns p with its own copy of the limits.
+func (p LimitProfile) clone() LimitProfile {
+	p.Limits = slices.Clone(p.Limits)
+	return p
+}
+
+// LimitProfileNamed returns a copy of the embedded profile called name.
 func LimitProfileNamed(name string) (LimitProfile, error) {
 	var names []string
-	for _, p := range Limits() {
+	for _, p := range embedded() {
 		if p.Name == name {
-			return p, nil
+			return p.clone(), nil
 		}
 		names = append(names, p.Name)
 	}

@@ -61,7 +61,7 @@ func BenchmarkLinearSolve(b *testing.B) {
 	s := sp.solver
 	s.evaluate(true)
 	n := len(s.vars) + 2
-	a0, r0 := append([]float64(nil), s.J[:n*n]...), append([]float64(nil), s.R[:n]...)
+	a0, r0 := append([]float64(nil), s.jacobian[:n*n]...), append([]float64(nil), s.resid[:n]...)
 	a, r, piv := make([]float64, len(a0)), make([]float64, len(r0)), make([]int, n)
 	b.Run("elimination", func(b *testing.B) {
 		for b.Loop() {

@@ -321,7 +321,7 @@ func parsePitzerRow(rec []string, col map[string]int, file string, line int) (pi
 
 // defaultPitzerTable is the embedded parameter table, read once.
 var defaultPitzerTable = sync.OnceValues(func() (*pitzerTable, error) {
-	f, err := data.FS.Open("pitzer.csv")
+	f, err := data.Open("pitzer.csv")
 	if err != nil {
 		return nil, err
 	}
@@ -877,15 +877,15 @@ func (ps *pitzerState) gammas(I, Z, S float64) float64 {
 	return 1 + 2*phiSum/S
 }
 
-// newPitzerSolver returns a Solver for the Pitzer model set.
-func newPitzerSolver(set *pitzerSet) *Solver {
-	s := NewSolver(set.model)
+// newPitzerSolver returns a solver for the Pitzer model set.
+func newPitzerSolver(set *pitzerSet) *solver {
+	s := newSolver(set.model)
 	s.pz = newPitzerState(set)
 	return s
 }
 
 // pitzerActive reports whether the solver runs the Pitzer equations.
-func (s *Solver) pitzerActive() bool {
+func (s *solver) pitzerActive() bool {
 	return s.pz != nil && s.p.model == Pitzer
 }
 
@@ -893,7 +893,7 @@ func (s *Solver) pitzerActive() bool {
 // coefficients: the specific-interaction part is held at its last refresh,
 // the Debye–Hückel term follows the current ionic strength, so that the
 // Jacobian keeps the dominant dependence on I.
-func (s *Solver) pitzerApply(I float64) {
+func (s *solver) pitzerApply(I float64) {
 	ps := s.pz
 	f, df := ps.debyeHuckel(I)
 	for p, i := range ps.set.ionSpecies {
@@ -909,7 +909,7 @@ func (s *Solver) pitzerApply(I float64) {
 // pitzerRefresh recomputes the Pitzer coefficients and φ from the molalities
 // at the current unknowns and returns the largest change of any lagged
 // ln γ or of φ (NaN when the coefficients are not finite).
-func (s *Solver) pitzerRefresh() float64 {
+func (s *solver) pitzerRefresh() float64 {
 	ps := s.pz
 	set := ps.set
 	s.evaluate(false) // molalities at the current point
@@ -949,7 +949,7 @@ func (s *Solver) pitzerRefresh() float64 {
 // pitzerWarnings says which parameters of the solution just solved were
 // used away from the temperatures they are known at, and which components
 // keep ion-association activity coefficients.
-func (s *Solver) pitzerWarnings(t float64) []string {
+func (s *solver) pitzerWarnings(t float64) []string {
 	ps := s.pz
 	set := ps.set
 	var out []string
@@ -1056,7 +1056,7 @@ func (ps *pitzerState) contribution(tm pzTerm, I float64, sig []bool) float64 {
 // carries at least 1 % of the total of a component it contains (H[+] and
 // OH[-]: above 1e-4 mol/kg), so that its activity coefficient matters to a
 // saturation index or to a balance.
-func (s *Solver) significantSpecies(i int) bool {
+func (s *solver) significantSpecies(i int) bool {
 	mi := s.ms[i]
 	if !s.live[i] || mi <= 0 {
 		return false

@@ -36,8 +36,8 @@ type problem struct {
 	logP   float64   // log10 partial pressure, atm, for rowGas
 }
 
-// Solver speciates waters with one Model, reusing its work arrays; the last
-// solution is the warm start of the next. A Solver is not safe for
+// solver speciates waters with one Model, reusing its work arrays; the last
+// solution is the warm start of the next. A solver is not safe for
 // concurrent use.
 //
 // The unknowns are the natural logarithms of the free molalities of the
@@ -46,7 +46,7 @@ type problem struct {
 // own equation, I = ½ Σ z² m, so that the analytic Jacobian includes the
 // dependence of every activity coefficient on I and Newton–Raphson
 // converges quadratically. Water activity is updated between iterations.
-type Solver struct {
+type solver struct {
 	m      *Model
 	nm, ns int
 
@@ -72,19 +72,19 @@ type Solver struct {
 	live   []bool
 	lnaw   float64
 
-	vars   []int // master index of each unknown except the last (ln I)
-	rows   []rowKind
-	rowOf  []int // unknown index of each master's row, −1 if none
-	alkRow int
-	chgRow int
-	gasRow int
-	scale  []float64
-	J      []float64
-	R      []float64
-	dx     []float64
-	save   []float64
-	ipiv   []int
-	prevV  []int
+	vars     []int // master index of each unknown except the last (ln I)
+	rows     []rowKind
+	rowOf    []int // unknown index of each master's row, −1 if none
+	alkRow   int
+	chgRow   int
+	gasRow   int
+	scale    []float64
+	jacobian []float64
+	resid    []float64
+	dx       []float64
+	save     []float64
+	ipiv     []int
+	prevV    []int
 	// totals and alkalinity of the previous solve, for rescale
 	prevTotals []float64
 	prevAlk    float64
@@ -118,23 +118,23 @@ const chordThreshold = 1e-5
 // balances close to 1e-12 of each total.
 const tolerance = 1e-12
 
-// NewSolver returns a Solver for m.
-func NewSolver(m *Model) *Solver {
+// newSolver returns a solver for m.
+func newSolver(m *Model) *solver {
 	nm, ns := len(m.masters), len(m.species)
 	n := nm + 2
 	other := tempCache{lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
 		mineralOwnLogK: make([]float64, len(m.minerals))}
-	return &Solver{other: other, m: m, nm: nm, ns: ns,
+	return &solver{other: other, m: m, nm: nm, ns: ns,
 		lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
 		mineralOwnLogK: make([]float64, len(m.minerals)),
 		clg:            make([]float64, len(m.classes)), cdlg: make([]float64, len(m.classes)), lnm: make([]float64, nm), lng: make([]float64, ns),
 		dlng: make([]float64, ns), ms: make([]float64, ns), live: make([]bool, ns),
 		vars: make([]int, 0, n), rows: make([]rowKind, 0, n), rowOf: make([]int, nm),
-		scale: make([]float64, n), J: make([]float64, n*n), R: make([]float64, n),
+		scale: make([]float64, n), jacobian: make([]float64, n*n), resid: make([]float64, n),
 		dx: make([]float64, n), save: make([]float64, n), ipiv: make([]int, n), prevV: make([]int, 0, n)}
 }
 
-func (s *Solver) setTemperature(t float64) {
+func (s *solver) setTemperature(t float64) {
 	if s.tSet && s.t == t {
 		return
 	}
@@ -169,7 +169,7 @@ type tempCache struct {
 
 // swapTemperature exchanges the current temperature's constants with the
 // other cached ones.
-func (s *Solver) swapTemperature() {
+func (s *solver) swapTemperature() {
 	cur := tempCache{t: s.t, set: s.tSet, lnK: s.lnK, mineralLogK: s.mineralLogK,
 		mineralOwnLogK: s.mineralOwnLogK, dh: s.dh}
 	o := s.other
@@ -182,7 +182,7 @@ var ErrNoConvergence = errors.New("speciation did not converge")
 
 // solve speciates problem p. With warm, the previous solution is the
 // starting point when the unknowns are the same.
-func (s *Solver) solve(p problem, warm bool) error {
+func (s *solver) solve(p problem, warm bool) error {
 	s.p = p
 	s.setTemperature(p.t)
 	if s.pz != nil {
@@ -280,7 +280,7 @@ func (s *Solver) solve(p problem, warm bool) error {
 // ratio of its estimates from the totals; a new fixed pH shifts each master
 // by the change of its acid–base forms. A water concentrated by cycles, or
 // the next sample of a similar series, then starts close to its solution.
-func (s *Solver) rescale() {
+func (s *solver) rescale() {
 	p := &s.p
 	// A new fixed pH shifts each master by the change of its acid–base
 	// forms (activity coefficients held at the previous solution's).
@@ -364,7 +364,7 @@ func sameMasters(a, b []int) bool {
 // alkalinity) changes sign, found by bisection. A few ratio iterations
 // (m_j ← m_j·T_j/Σν_sj m_s) then tame strong complexation before
 // Newton–Raphson.
-func (s *Solver) initialGuess() {
+func (s *solver) initialGuess() {
 	m, p := s.m, &s.p
 	for i := range s.lng {
 		s.lng[i], s.dlng[i] = 0, 0
@@ -425,7 +425,7 @@ func (s *Solver) initialGuess() {
 
 // acidBase lists, for each unknown master, the live species made of that
 // master (coefficient 1), H[+] and H2O: its acid–base forms.
-func (s *Solver) acidBase() {
+func (s *solver) acidBase() {
 	if s.abValid && slices.Equal(s.abVars, s.vars) {
 		return // the same unknowns, so the same live species
 	}
@@ -467,7 +467,7 @@ func (s *Solver) acidBase() {
 
 // mastersAt sets ln m(H[+]) = lnaH and every other unknown master from its
 // equation with only acid–base forms present (activity coefficients 1).
-func (s *Solver) mastersAt(lnaH float64) {
+func (s *solver) mastersAt(lnaH float64) {
 	m, p := s.m, &s.p
 	s.lnm[0] = lnaH
 	for k, j := range s.vars {
@@ -509,14 +509,14 @@ func (s *Solver) mastersAt(lnaH float64) {
 // guessPH returns the ln a(H+) where the H[+] equation (charge balance or
 // alkalinity) changes sign with every master at its acid–base guess,
 // found by bisection over pH −1 to 15.
-func (s *Solver) guessPH() float64 {
+func (s *solver) guessPH() float64 {
 	f := func(lnaH float64) float64 {
 		s.mastersAt(lnaH)
 		s.evaluate(false)
 		if s.rows[0] == rowAlk {
-			return -s.R[0] // alkalinity falls as H+ rises
+			return -s.resid[0] // alkalinity falls as H+ rises
 		}
-		return s.R[0]
+		return s.resid[0]
 	}
 	lo, hi := -15*math.Ln10, 1*math.Ln10 // f rises from lo to hi
 	flo, fhi := f(lo), f(hi)
@@ -542,7 +542,7 @@ func (s *Solver) guessPH() float64 {
 const lnMax = 30
 
 // updateWater sets ln a_w from the current species.
-func (s *Solver) updateWater() {
+func (s *solver) updateWater() {
 	var sum float64
 	for i := range s.m.species {
 		if s.live[i] {
@@ -557,11 +557,11 @@ func (s *Solver) updateWater() {
 }
 
 // evaluate computes activity coefficients at I = exp(lnI), the molality of
-// every live species, and the scaled residuals in s.R; with jac it also
-// fills the Jacobian s.J (row-major, n×n; unknowns ln m of s.vars, then
+// every live species, and the scaled residuals in s.resid; with jac it also
+// fills the Jacobian s.jacobian (row-major, n×n; unknowns ln m of s.vars, then
 // ln I, then ln a_w). It returns the largest absolute scaled residual and
 // the sum of squares.
-func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
+func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	m, p := s.m, &s.p
 	nv := len(s.vars)
 	cI, cW := nv, nv+1 // columns (and rows) of ln I and ln a_w
@@ -592,13 +592,13 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	if hFixed {
 		s.lnm[0] = p.lnaH - s.lng[0]
 	}
-	R := s.R[:n]
+	R := s.resid[:n]
 	for k := range R {
 		R[k] = 0
 	}
 	var J []float64
 	if jac {
-		J = s.J[:n*n]
+		J = s.jacobian[:n*n]
 		for k := range J {
 			J[k] = 0
 		}
@@ -770,7 +770,7 @@ func (s *Solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 
 // newton runs Newton–Raphson with a step limit and a non-monotone
 // backtracking line search until the scaled residuals have converged.
-func (s *Solver) newton() error {
+func (s *solver) newton() error {
 	n := len(s.vars) + 2
 	cI, cW := n-2, n-1
 	s.iterations = 0
@@ -805,12 +805,12 @@ func (s *Solver) newton() error {
 		}
 		prevMax = maxAbs
 		for k := 0; k < n; k++ {
-			s.dx[k] = -s.R[k]
+			s.dx[k] = -s.resid[k]
 		}
 		if chord {
-			solveFactored(s.J[:n*n], s.dx[:n], s.ipiv[:n], n)
+			solveFactored(s.jacobian[:n*n], s.dx[:n], s.ipiv[:n], n)
 		} else {
-			if ok := solveLinear(s.J[:n*n], s.dx[:n], s.ipiv[:n], n); !ok {
+			if ok := solveLinear(s.jacobian[:n*n], s.dx[:n], s.ipiv[:n], n); !ok {
 				return fmt.Errorf("%w: singular Jacobian (a component may be fixed twice)", ErrNoConvergence)
 			}
 			factored = true

@@ -146,9 +146,9 @@ func (r *Result) species(name string) SpeciesResult {
 // from the previous solution. Not safe for concurrent use.
 type Speciator struct {
 	model  *Model
-	solver *Solver
+	solver *solver
 	// pitzer is the solver of the Pitzer model set, made on first use.
-	pitzer *Solver
+	pitzer *solver
 	// last carbon fix (step 1 of Speciate), reused while the same water is
 	// evaluated at other temperatures or in other modes.
 	fix       carbonFix
@@ -185,7 +185,7 @@ func NewSpeciator(m *Model) *Speciator {
 	if m == nil {
 		m = DefaultModel()
 	}
-	return &Speciator{model: m, solver: NewSolver(m)}
+	return &Speciator{model: m, solver: newSolver(m)}
 }
 
 // Speciate computes the equilibrium state of water a under opt. It is
@@ -219,7 +219,7 @@ const (
 // balance without alkalinity). Errors say which sample and why.
 func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	if opt.Model != nil && opt.Model != sp.model {
-		sp.model, sp.solver, sp.fixCached = opt.Model, NewSolver(opt.Model), false
+		sp.model, sp.solver, sp.fixCached = opt.Model, newSolver(opt.Model), false
 		sp.pitzer = nil
 	}
 	t := a.Temperature
@@ -433,7 +433,7 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 // engine returns the solver for activity model model: the Pitzer model
 // set's for Pitzer (built on first use), the ion-association set's
 // otherwise.
-func (sp *Speciator) engine(model ActivityModel) (*Solver, error) {
+func (sp *Speciator) engine(model ActivityModel) (*solver, error) {
 	if model != Pitzer {
 		return sp.solver, nil
 	}
@@ -464,7 +464,7 @@ const implausibleLogPCO2 = 0.5
 
 // logPCO2 returns log10 of the CO2 partial pressure, atm, in equilibrium
 // with the solver's current solution (NaN without carbon or CO2(g)).
-func logPCO2(s *Solver) float64 {
+func logPCO2(s *solver) float64 {
 	m := s.m
 	g, ok := m.gasIdx["CO2(g)"]
 	if !ok {
@@ -483,7 +483,7 @@ func logPCO2(s *Solver) float64 {
 
 // carbonState returns total inorganic carbon (mol/kg), alkalinity (eq/kg)
 // and the molality of CO2[0] of the current solution of solver s.
-func carbonState(s *Solver) (carbon, alk, co2 float64) {
+func carbonState(s *solver) (carbon, alk, co2 float64) {
 	m := s.m
 	cj := m.compMaster[water.C]
 	co2i, hasCO2 := m.speciesIdx["CO2[0]"]
@@ -506,7 +506,7 @@ func carbonState(s *Solver) (carbon, alk, co2 float64) {
 }
 
 // collect turns the state of solver s into a Result.
-func collect(s *Solver, a water.Analysis, p problem) *Result {
+func collect(s *solver, a water.Analysis, p problem) *Result {
 	m := s.m
 	r := &Result{Name: a.Name, Temperature: p.t, IonicStrength: math.Exp(s.lnI), Activity: p.model,
 		WaterActivity: math.Exp(s.lnaw), Iterations: s.iterations, LogPCO2: math.NaN()}

@@ -402,7 +402,7 @@ func (t *Table) add(e Entry) error {
 }
 
 var defaultTable = sync.OnceValues(func() (*Table, error) {
-	f, err := data.FS.Open("thermo.csv")
+	f, err := data.Open("thermo.csv")
 	if err != nil {
 		return nil, err
 	}

@@ -133,4 +133,4 @@ func normalizeName(s string) string {
 
 // OpenDemo opens the embedded demo file (data/demo.csv): three invented
 // waters of a fictional plant, for --demo.
-func OpenDemo() (io.ReadCloser, error) { return data.FS.Open("demo.csv") }
+func OpenDemo() (io.ReadCloser, error) { return data.Open("demo.csv") }
