@@ -450,15 +450,3 @@ func (cc compositionChart) option() map[string]any {
 	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
 	return option
 }
-
-// signed formats x with a sign and n decimals ("+1.26", "−0.40").
-func signed(x float64, n int) string {
-	if !finite(x) {
-		return "—"
-	}
-	s := fmt.Sprintf("%+.*f", n, dec(x, n))
-	if s[0] == '-' {
-		return "−" + s[1:]
-	}
-	return s
-}

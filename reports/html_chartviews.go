@@ -1,0 +1,399 @@
+package reports
+
+import (
+	"cmp"
+	"fmt"
+	"math"
+	"slices"
+	"strconv"
+	"strings"
+	"time"
+
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// maxPanelTitle is the longest panel title, in characters, that fits a
+// third of the chart width.
+const maxPanelTitle = 30
+
+// siPanels turns sweep points into one SI panel per mineral; x is rounded
+// to xDecimals. A panel whose points all failed is kept, empty, for
+// panelChart.drawable to drop.
+func siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDecimals int) []panel {
+	var out []panel
+	for _, m := range minerals {
+		p := panel{Title: mineralLabel(m.Name) + " · " + m.Formula, Color: colBlue, SI: true, Limit: math.NaN()}
+		if m.Formula == "" || len([]rune(p.Title)) > maxPanelTitle {
+			p.Title = mineralLabel(m.Name) // the formula is in the table of saturation indices
+		}
+		if reach, ok := saturation.InhibitorReach(m.Name); ok && !reach.Slow {
+			p.Limit = reach.MaxSI
+		}
+		for _, pt := range pts {
+			if pt.Result == nil {
+				continue
+			}
+			if si, ok := pt.Result.SI(m.Name); ok && finite(si) {
+				p.Points = append(p.Points, xy{dec(pt.X, xDecimals), dec(si, 2)})
+			}
+		}
+		out = append(out, p) // even empty: drawable drops it and says why
+	}
+	return out
+}
+
+func phPanel(pts []saturation.Point, xDecimals int) panel {
+	p := panel{Title: "pH", Color: colPurple, Limit: math.NaN()}
+	for _, pt := range pts {
+		if pt.Result != nil && finite(pt.Result.PH) {
+			p.Points = append(p.Points, xy{dec(pt.X, xDecimals), dec(pt.Result.PH, 2)})
+		}
+	}
+	return p
+}
+
+// addChart encodes a chart option under id.
+func (b *builder) addChart(id string, option map[string]any) error {
+	raw, err := chartJSON(id, option)
+	if err != nil {
+		return err
+	}
+	b.options[id] = raw
+	return nil
+}
+
+// addPanelChart adds a panel chart titled title, drawn from the points of
+// pts: its panels with no finite point are left out (the note says so
+// when points of pts failed), and when none is left (or the option cannot
+// be encoded) the chart is, and the note says why. A chart with no panels
+// to begin with (nothing worth charting) is left out without a note.
+func (b *builder) addPanelChart(pc panelChart, title, caption, caution string, pts []saturation.Point) (chartView, string, bool) {
+	if len(pc.Panels) == 0 {
+		return chartView{}, "", false
+	}
+	drawn, dropped := pc.drawable()
+	if len(drawn.Panels) == 0 {
+		return chartView{}, fmt.Sprintf("%s: not computed, %s.", title, sweepWhy(pts)), false
+	}
+	option, err := drawn.option()
+	if err == nil {
+		err = b.addChart(drawn.ID, option)
+	}
+	if err != nil {
+		return chartView{}, fmt.Sprintf("%s: not drawn (%v).", title, err), false
+	}
+	note := ""
+	// A panel can be empty because its sweep failed (say so) or because
+	// its mineral is not in these results (nothing to say).
+	if len(dropped) > 0 && sweepFailed(pts) {
+		note = fmt.Sprintf("%s: the panel %s is left out, %s.", title, strings.Join(dropped, ", "), sweepWhy(pts))
+		if len(dropped) > 1 {
+			note = fmt.Sprintf("%s: the panels %s are left out, %s.", title, strings.Join(dropped, ", "), sweepWhy(pts))
+		}
+	}
+	return chartView{ID: drawn.ID, Title: title, Caption: caption, Height: drawn.height(), Caution: caution}, note, true
+}
+
+// compositionView adds the composition chart of a sample; ok is false
+// when it has no ions to show or the chart cannot be encoded.
+func (b *builder) compositionView(id string, s ReportSample) (chartView, bool) {
+	cc := compositionOf(id, s.Input)
+	if len(cc.Ions) == 0 {
+		return chartView{}, false
+	}
+	if err := b.addChart(cc.ID, cc.option()); err != nil {
+		return chartView{}, false
+	}
+	return chartView{ID: cc.ID, Title: "Composition, meq/L",
+		Caption: fmt.Sprintf("Cations and anions as entered, milliequivalents per litre; the bars are equally "+
+			"long when the ions balance (here %s).", balanceChip(s.Quality).Text), Height: cc.height()}, true
+}
+
+// sampleCharts builds the five charts of a sample and the notes on those
+// that could not be drawn. The chart IDs are "s<N>-<kind>", N the
+// sample's position in the input.
+func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chartView, []string) {
+	var views []chartView
+	var notes []string
+	id := func(kind string) string { return fmt.Sprintf("s%d-%s", index+1, kind) }
+	switch {
+	case sw.err != nil:
+		notes = append(notes, "The temperature, cycles and dose charts could not be computed: "+sw.err.Error())
+	case sw.total > 0 && sw.failed == sw.total:
+		why := ""
+		if sw.firstErr != nil {
+			why = " (" + sw.firstErr.Error() + ")"
+		}
+		notes = append(notes, fmt.Sprintf("The temperature, cycles and dose charts and the limiting-mineral map "+
+			"are not computed: none of the %d points of their sweeps could be computed%s.", sw.total, why))
+	default:
+		views, notes = b.sweepCharts(id, s, sw)
+	}
+	if cv, ok := b.compositionView(id("composition"), s); ok {
+		views = append(views, cv)
+	}
+	return views, notes
+}
+
+// sweepCharts builds the temperature, cycles and dose charts and the
+// limiting-mineral map of a sample whose sweeps gave points, and the notes
+// on what could not be drawn; id names a chart of the sample by its kind.
+func (b *builder) sweepCharts(id func(string) string, s ReportSample, sw *sweepSet) ([]chartView, []string) {
+	var views []chartView
+	var notes []string
+	if sw.failed > 0 {
+		notes = append(notes, fmt.Sprintf("%d of %d points of the charts could not be computed and are left out.",
+			sw.failed, sw.total))
+	}
+	for _, m := range sw.minerals {
+		b.charted[m.Name] = true
+	}
+	forced := ""
+	if b.o.Speciation.AtTemperature {
+		forced = fmt.Sprintf(" (evaluated at %s °C, as asked)", num(b.o.Speciation.Temperature, 1))
+	}
+
+	tStep := tickStep((sw.hot - sw.bulk) / 6)
+	temp := panelChart{ID: id("temperature"), XName: "°C", XMin: math.Floor(sw.bulk/tStep) * tStep,
+		XMax:   math.Ceil(sw.hot/tStep) * tStep,
+		Panels: siPanels(sw.temp, sw.minerals, 1)}
+	cyc := panelChart{ID: id("cycles"), XName: "cycles of concentration", XMin: 1, XMax: dec(sw.maxCycles, 2),
+		Panels: siPanels(sw.cycles, sw.minerals, 2)}
+	if t := s.Treatment; t != nil && t.Cycles != nil && finite(t.Cycles.MaxCycles) && t.Cycles.Limiting != "" {
+		cyc.Marks = append(cyc.Marks, xMark{dec(t.Cycles.MaxCycles, 2), "highest cycles " + num(t.Cycles.MaxCycles, 1)})
+	}
+	dose := panelChart{ID: id("dose"), XName: "mg/L " + b.reagent.Formula, XMin: 0, XMax: math.NaN(),
+		Panels: append([]panel{phPanel(sw.dose, 1)}, siPanels(sw.dose, sw.minerals, 1)...)}
+	if t := s.Treatment; t != nil && t.Dose != nil && t.Dose.Reached && t.Dose.Dose > 0 &&
+		t.Dose.Reagent.Name == b.reagent.Name && t.Dose.Dose <= sw.maxDose {
+		dose.Marks = append(dose.Marks, xMark{dec(t.Dose.Dose, 1), "to " + targetLabel(t.Dose.Target)})
+	}
+	strength := b.o.Strength
+	if strength == 0 {
+		strength = b.reagent.Strength
+	}
+	specs := []struct {
+		pc             panelChart
+		title, caption string
+		caution        string
+		pts            []saturation.Point
+	}{
+		{temp, "Saturation index against temperature",
+			fmt.Sprintf("The water heated in a closed system from the sample temperature (%s °C) to %s °C, "+
+				"the tube-wall (skin) temperature of a heat exchanger. Solid line: equilibrium (SI = 0); "+
+				"blue band: near equilibrium (±0.2); dashed line: the SI an inhibitor usually holds.",
+				num(sw.bulk, 1), num(sw.hot, 1)), "", sw.temp},
+		{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced), "", sw.cycles},
+		{dose, fmt.Sprintf("pH and saturation index against %s dose", b.reagent.Label),
+			fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. Rising lines are side effects "+
+				"of what the reagent adds (sulfate from sulfuric acid raises the sulfate minerals).",
+				num(strength, 0), b.reagent.Label, b.reagent.Formula, num(sw.maxDose, 0), forced),
+			sentence(b.reagent.Caution), sw.dose},
+	}
+	for _, sp := range specs {
+		view, note, ok := b.addPanelChart(sp.pc, sp.title, sp.caption, sp.caution, sp.pts)
+		if note != "" {
+			notes = append(notes, note)
+		}
+		if ok {
+			views = append(views, view)
+		}
+	}
+	const mapTitle = "Limiting mineral by temperature and cycles"
+	if hc, caption, ok := heatOf(id("map"), sw); ok {
+		if err := b.addChart(hc.ID, hc.option()); err != nil {
+			notes = append(notes, fmt.Sprintf("%s: not drawn (%v).", mapTitle, err))
+		} else {
+			views = append(views, chartView{ID: hc.ID, Title: mapTitle, Caption: caption, Height: hc.height()})
+		}
+	}
+	return views, notes
+}
+
+// heatOf builds the limiting-mineral map of a sample.
+func heatOf(id string, sw *sweepSet) (heatChart, string, bool) {
+	hc := heatChart{ID: id, XName: "°C", YName: "cycles"}
+	for _, t := range sw.gridT {
+		hc.XLabels = append(hc.XLabels, num(t, 0))
+	}
+	for _, c := range sw.gridC {
+		hc.YLabels = append(hc.YLabels, strconv.FormatFloat(sig(c, 2), 'f', -1, 64))
+	}
+	type cell struct {
+		m    saturation.MineralResult
+		band saturation.Band
+	}
+	cells := make([]*cell, len(sw.grid))
+	names := map[string]bool{}
+	for i, p := range sw.grid {
+		if p.Result == nil {
+			continue
+		}
+		if m, ok := limiting(p.Result); ok {
+			cells[i] = &cell{m, saturation.RiskBand(m.Name, m.SI)}
+			names[m.Name] = true
+		}
+	}
+	if len(names) == 0 {
+		return hc, "", false
+	}
+	one := len(names) == 1
+	var only string
+	for i, c := range cells {
+		if c == nil {
+			continue
+		}
+		label := signed(c.m.SI, 2)
+		if !one {
+			label = mineralLabel(c.m.Name) + "\n" + label
+		} else {
+			only = mineralLabel(c.m.Name)
+		}
+		hc.Cells = append(hc.Cells, heatCell{X: i % len(sw.gridT), Y: i / len(sw.gridT), Band: c.band, Label: label})
+	}
+	caption := "Each cell names the mineral with the highest risk at that temperature and concentration, " +
+		"with its saturation index, coloured by risk band."
+	if one {
+		caption = fmt.Sprintf("The limiting mineral is %s everywhere on this grid; each cell gives its saturation "+
+			"index, coloured by risk band.", only)
+	}
+	return hc, caption, true
+}
+
+// ionGroup is one bar segment of the composition chart.
+type ionGroup struct {
+	name       string
+	cation     bool
+	color      string
+	text       string // label colour on the bar
+	components []water.Component
+	alkalinity bool
+}
+
+var ionGroups = []ionGroup{
+	{name: "Ca", cation: true, color: colBlue, text: "#ffffff", components: []water.Component{water.Ca}},
+	{name: "Mg", cation: true, color: colOrange, text: "#000000", components: []water.Component{water.Mg}},
+	{name: "Na", cation: true, color: colGreen, text: "#000000", components: []water.Component{water.Na}},
+	{name: "K", cation: true, color: colPurple, text: "#000000", components: []water.Component{water.K}},
+	{name: "Ba, Sr, Fe, Mn", cation: true, color: colSky, text: "#000000", components: []water.Component{water.Ba, water.Sr, water.Fe, water.Mn}},
+	{name: "alkalinity", color: colVermilion, text: "#000000", alkalinity: true},
+	{name: "SO₄", color: colYellow, text: "#000000", components: []water.Component{water.S}},
+	{name: "Cl", color: "#8A8A8A", text: "#000000", components: []water.Component{water.Cl}},
+	{name: "NO₃, F", color: "#C9C9C9", text: "#000000", components: []water.Component{water.N, water.F}},
+}
+
+// compositionOf sums the cations and anions of a as meq/L (the charge of
+// each component as water.Component.Charge counts it, alkalinity as
+// anion equivalents), the same sums as the ion balance.
+func compositionOf(id string, a water.Analysis) compositionChart {
+	cc := compositionChart{ID: id}
+	for _, g := range ionGroups {
+		var meq float64
+		if g.alkalinity {
+			if finite(a.Alkalinity) && a.Alkalinity > 0 {
+				meq = a.Alkalinity * a.WaterPerLitre * 1000
+			}
+		} else {
+			for _, c := range g.components {
+				meq += a.MeqPerLitre(c)
+			}
+		}
+		if finite(meq) && meq > 0 {
+			cc.Ions = append(cc.Ions, ionBar{Name: g.name, Cation: g.cation, MeqPerL: meq, Color: g.color, TextColor: g.text})
+		}
+	}
+	return cc
+}
+
+// timeCharts builds the indices-over-time charts: one per water (sample
+// name) with two or more computed samples whose dates read as calendar
+// dates, at most maxTimeCharts, the waters with the most samples first.
+func (b *builder) timeCharts() ([]chartView, string) {
+	type dated struct {
+		t time.Time
+		s ReportSample
+	}
+	series := map[string][]dated{}
+	var order []string
+	undated := 0
+	for _, s := range b.r.Samples {
+		if s.Result == nil || s.Input.Date == "" {
+			continue
+		}
+		t, ok := parseDate(s.Input.Date)
+		if !ok {
+			undated++
+			continue
+		}
+		if _, seen := series[s.Name]; !seen {
+			order = append(order, s.Name)
+		}
+		series[s.Name] = append(series[s.Name], dated{t, s})
+	}
+	var names []string
+	for _, n := range order {
+		if len(series[n]) >= 2 {
+			names = append(names, n)
+		}
+	}
+	slices.SortStableFunc(names, func(x, y string) int { return cmp.Compare(len(series[y]), len(series[x])) })
+	note := ""
+	if len(names) > maxTimeCharts {
+		note = fmt.Sprintf("%d further waters with dated samples are not charted.", len(names)-maxTimeCharts)
+		names = names[:maxTimeCharts]
+	}
+	if undated > 0 {
+		note = strings.TrimSpace(note + fmt.Sprintf(" %d sample dates could not be read as dates (YYYY-MM-DD) and are left out.", undated))
+	}
+	var views []chartView
+	for i, name := range names {
+		pts := series[name]
+		slices.SortStableFunc(pts, func(x, y dated) int { return x.t.Compare(y.t) })
+		var results []*saturation.Result
+		var sweep []saturation.Point
+		for _, d := range pts {
+			results = append(results, d.s.Result)
+			sweep = append(sweep, saturation.Point{X: float64(d.t.UnixMilli()), Result: d.s.Result})
+		}
+		minerals := chartMinerals(results)
+		for _, m := range minerals {
+			b.charted[m.Name] = true
+		}
+		panels := siPanels(sweep, minerals, 0)
+		lsi := panel{Title: "Langelier index (LSI)", Color: colVermilion, SI: true, Limit: math.NaN()}
+		for _, d := range pts {
+			if ix := d.s.Indices; ix != nil && finite(ix.LSI) {
+				lsi.Points = append(lsi.Points, xy{float64(d.t.UnixMilli()), dec(ix.LSI, 2)})
+			}
+		}
+		if len(lsi.Points) > 0 {
+			panels = append([]panel{lsi}, panels...)
+		}
+		pc := panelChart{ID: fmt.Sprintf("time-%d", i+1), Time: true, XMin: math.NaN(), XMax: math.NaN(), Panels: panels}
+		caption := fmt.Sprintf("%d samples from %s to %s, at the temperature of each sample.", len(pts),
+			pts[0].t.Format("2 Jan 2006"), pts[len(pts)-1].t.Format("2 Jan 2006"))
+		view, why, ok := b.addPanelChart(pc, name, caption, "", sweep)
+		if why != "" {
+			note = strings.TrimSpace(note + " " + why)
+		}
+		if ok {
+			views = append(views, view)
+		}
+	}
+	return views, note
+}
+
+// maxTimeCharts caps the indices-over-time charts.
+const maxTimeCharts = 12
+
+// parseDate reads a sample date: YYYY-MM-DD, optionally with a time.
+func parseDate(s string) (time.Time, bool) {
+	for _, layout := range []string{"2006-01-02", "2006-01-02 15:04", "2006-01-02T15:04", "2006-01-02 15:04:05",
+		"2006-01-02T15:04:05", time.RFC3339} {
+		if t, err := time.Parse(layout, strings.TrimSpace(s)); err == nil {
+			return t.UTC(), true
+		}
+	}
+	return time.Time{}, false
+}

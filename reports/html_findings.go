@@ -1,0 +1,237 @@
+package reports
+
+import (
+	"fmt"
+	"strings"
+
+	"scalerisk/saturation"
+)
+
+// facts are the key figures at the head of a sample's section.
+func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
+	r := s.Result
+	var out []fact
+	if m, ok := limiting(r); ok {
+		c := bandChip(saturation.RiskBand(m.Name, m.SI))
+		out = append(out, fact{Label: "Limiting mineral at " + num(r.Temperature, 0) + " °C",
+			Value: mineralLabel(m.Name) + "  SI " + signed(m.SI, 2), Chip: &c})
+	} else {
+		out = append(out, fact{Label: "Limiting mineral at " + num(r.Temperature, 0) + " °C", Value: "none supersaturated"})
+	}
+	if sw.err == nil && len(sw.temp) > 0 {
+		last := sw.temp[len(sw.temp)-1]
+		if last.Result != nil {
+			if m, ok := limiting(last.Result); ok {
+				c := bandChip(saturation.RiskBand(m.Name, m.SI))
+				out = append(out, fact{Label: "Heated to " + num(sw.hot, 0) + " °C",
+					Value: mineralLabel(m.Name) + "  SI " + signed(m.SI, 2), Chip: &c})
+			}
+		}
+	}
+	out = append(out, balanceFact(s))
+	out = append(out, fact{Label: "pH · ionic strength",
+		Value: num(r.PH, 2) + " · " + sigText(r.IonicStrength, 3) + " mol/kg", Note: r.Activity.String() + " activities"})
+	return out
+}
+
+// balanceFact is the ion balance of a sample and its verdict.
+func balanceFact(s ReportSample) fact {
+	bal := balanceChip(s.Quality)
+	verdict := "meets " + s.Quality.BalanceLimit
+	if bal.Class == "v-check" {
+		verdict = "fails " + s.Quality.BalanceLimit
+	}
+	if bal.Class == "v-none" {
+		verdict = "no ions to balance"
+	}
+	return fact{Label: "Ion balance", Value: bal.Text, Note: verdict}
+}
+
+// findings are the plain-word conclusions of a sample's section, read from
+// its results and sweeps.
+func (b *builder) findings(s ReportSample, sw *sweepSet) []string {
+	r := s.Result
+	var out []string
+	if m, ok := limiting(r); ok {
+		band := saturation.RiskBand(m.Name, m.SI)
+		out = append(out, fmt.Sprintf("At %s °C the limiting mineral is %s (%s), SI %s: %s.",
+			num(r.Temperature, 1), mineralLabel(m.Name), m.Formula, signed(m.SI, 2), band))
+	} else {
+		out = append(out, fmt.Sprintf("At %s °C no scale-forming mineral is supersaturated.", num(r.Temperature, 1)))
+	}
+	if sw.err != nil {
+		return append(out, b.qualityFinding(s)...)
+	}
+	// Temperature: minerals that pass their inhibitor limit on the way to
+	// the skin temperature, with the first temperature computed where they
+	// do.
+	out = append(out, passFindings(sw.temp, func(x float64) string { return num(x, 0) + " °C" },
+		fmt.Sprintf("between %s and %s °C", num(sw.bulk, 0), num(sw.hot, 0)))...)
+	if t := s.Treatment; t != nil && t.Cycles != nil {
+		out = append(out, cyclesFinding(t.Cycles, t.CyclesRule))
+	} else {
+		out = append(out, passFindings(sw.cycles, func(x float64) string { return num(x, 1) + " cycles" },
+			fmt.Sprintf("when concentrated up to %s cycles", num(sw.maxCycles, 0)))...)
+	}
+	out = append(out, b.doseFinding(s, sw)...)
+	return append(out, b.qualityFinding(s)...)
+}
+
+// passFindings says which minerals go beyond inhibitor reach over a sweep
+// and from which point, or that none does; nothing when no point of the
+// sweep was computed.
+func passFindings(pts []saturation.Point, at func(float64) string, span string) []string {
+	type first struct {
+		name string
+		x    float64
+	}
+	var firsts []first
+	seen := map[string]bool{}
+	computed := 0
+	for _, p := range pts {
+		if p.Result == nil {
+			continue
+		}
+		computed++
+		for _, m := range p.Result.Minerals {
+			if seen[m.Name] || !scaleFormer(m.Name, m.SI) {
+				continue
+			}
+			if saturation.RiskBand(m.Name, m.SI) == saturation.BeyondReach {
+				seen[m.Name] = true
+				firsts = append(firsts, first{m.Name, p.X})
+			}
+		}
+	}
+	if computed == 0 {
+		return nil // nothing was computed to say it of
+	}
+	if len(firsts) == 0 {
+		return []string{fmt.Sprintf("No mineral goes beyond inhibitor reach %s.", span)}
+	}
+	var parts []string
+	for _, f := range firsts {
+		if f.x == pts[0].X {
+			parts = append(parts, mineralLabel(f.name)+" (already at the start)")
+		} else {
+			parts = append(parts, fmt.Sprintf("%s (from %s)", mineralLabel(f.name), at(f.x)))
+		}
+	}
+	return []string{fmt.Sprintf("Beyond inhibitor reach %s: %s.", span, strings.Join(parts, ", "))}
+}
+
+func cyclesFinding(c *saturation.CyclesResult, rule string) string {
+	where := "limits of the " + c.Profile.Name + " profile"
+	if rule != "" {
+		where += ", carbonate " + rule
+	}
+	switch {
+	case len(c.Exceeded) > 0:
+		var names []string
+		for _, q := range c.Exceeded {
+			names = append(names, quantityLabel(q))
+		}
+		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past the %s for %s: it needs treatment before it is concentrated.",
+			where, strings.Join(names, ", "))
+	case c.Limiting == "":
+		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).", num(c.MaxCycles, 1), where)
+	}
+	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s (%s).", num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
+}
+
+// cyclesCaption describes the cycles chart.
+func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) string {
+	if sw.fromSearch {
+		rule := s.Treatment.CyclesRule
+		if rule == "" {
+			rule = "as searched"
+		}
+		c := s.Treatment.Cycles
+		mark := fmt.Sprintf(" No limit of the %s profile is reached in this range.", c.Profile.Name)
+		if c.Limiting != "" {
+			mark = fmt.Sprintf(" The dotted line marks the highest cycles under the %s limits, set by %s.",
+				c.Profile.Name, quantityLabel(c.Limiting))
+		}
+		return fmt.Sprintf("The points of the highest-cycles search: every dissolved constituent concentrated 1 to %s "+
+			"times%s, carbonate system %s.%s", num(sw.maxCycles, 1), forced, rule, mark)
+	}
+	if r := b.o.CyclesRule; r != nil && r.Name != "closed" {
+		return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate rule %s.",
+			num(sw.maxCycles, 1), forced, r.Name)
+	}
+	return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate system closed "+
+		"(no CO₂ exchanged with air; a tower open to air loses CO₂ and runs at a higher pH).", num(sw.maxCycles, 1), forced)
+}
+
+// doseFinding reads the dose sweep: pH from start to end, and the
+// minerals whose SI rises with the dose.
+func (b *builder) doseFinding(s ReportSample, sw *sweepSet) []string {
+	var out []string
+	// The answer first: the dose to the target, when it was asked for.
+	if s.Treatment != nil && s.Treatment.Dose != nil {
+		d := s.Treatment.Dose
+		switch {
+		case d.Reached && d.Dose > 0:
+			out = append(out, fmt.Sprintf("The dose to %s is %s mg/L of %s (%s %%): pH %s → %s.",
+				d.Target, num(d.Dose, 1), d.Reagent.Label, num(d.Strength, 0), num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
+		case d.Reached:
+			out = append(out, fmt.Sprintf("No %s is needed for %s: the water is already there.", d.Reagent.Label, d.Target))
+		case len(d.Warnings) > 0:
+			w := d.Warnings[0]
+			out = append(out, "Dose to "+d.Target.String()+": "+sentence(w))
+		default:
+			out = append(out, fmt.Sprintf("%s does not reach %s.", d.Reagent.Label, d.Target))
+		}
+	}
+	// Then what the dose chart shows across its range, said as a range.
+	var first, last *saturation.Result
+	var lastX float64
+	for _, p := range sw.dose {
+		if p.Result == nil {
+			continue
+		}
+		if first == nil {
+			first = p.Result
+		}
+		last, lastX = p.Result, p.X
+	}
+	if first == nil || last == first {
+		return out
+	}
+	var falls, rises []string
+	for _, m := range sw.minerals {
+		a, ok1 := first.SI(m.Name)
+		z, ok2 := last.SI(m.Name)
+		if !ok1 || !ok2 {
+			continue
+		}
+		change := fmt.Sprintf("%s %s → %s", mineralLabel(m.Name), signed(a, 2), signed(z, 2))
+		switch {
+		case z < a-0.005:
+			falls = append(falls, change)
+		case z > a+0.005:
+			rises = append(rises, change)
+		}
+	}
+	line := fmt.Sprintf("Across the dose chart (0 to %s mg/L of %s, the end of the chart, not a recommendation) pH goes from %s to %s",
+		num(lastX, 0), b.reagent.Label, num(first.PH, 2), num(last.PH, 2))
+	if len(falls) > 0 {
+		line += "; SI falls for " + strings.Join(falls, ", ")
+	}
+	if len(rises) > 0 {
+		line += "; SI rises for " + strings.Join(rises, ", ") + " (a side effect to watch)"
+	}
+	return append(out, line+".")
+}
+
+func (b *builder) qualityFinding(s ReportSample) []string {
+	q := s.Quality
+	if !finite(q.BalancePercent) {
+		return []string{"The ion balance cannot be checked: no ions were reported."}
+	}
+	if q.BalanceAcceptable {
+		return []string{fmt.Sprintf("The ion balance (%s %%) meets the criterion %s.", signed(q.BalancePercent, 2), q.BalanceLimit)}
+	}
+	return []string{fmt.Sprintf("The ion balance (%s %%) fails the criterion %s: an analyte may be missing or in "+
+		"error, and every index above is less certain.", signed(q.BalancePercent, 2), q.BalanceLimit)}
+}
