@@ -53,13 +53,11 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	wpl := a.WaterPerLitre
 	ca := a.Totals[water.Ca] * wpl // mol/L
 	alk := a.Alkalinity * wpl      // eq/L
-	var warnings []string
 	if !(alk > minIndexAlkalinity) {
 		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %.1f mg/L as CaCO3", minIndexAlkalinity*1000*water.EquivalentMassCaCO3)}
 	}
-	if a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0 {
-		ix.LarsonSkold = (a.Totals[water.Cl] + 2*a.Totals[water.S]) * wpl / alk
-	}
+	var warnings []string
+	ix.LarsonSkold, warnings = larsonSkold(a, alk)
 	if !(ca > 0) {
 		return ix, []string{"the calcium carbonate indices need calcium"}
 	}
@@ -106,6 +104,40 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 // indices are not computed (0.5 mg/L as CaCO3): they divide by it or take
 // its logarithm, and below the titration's detection they mean nothing.
 const minIndexAlkalinity = 1e-5
+
+// minLarsonSkoldAlkalinity is the alkalinity, eq/L, below which the
+// Larson–Skold index is not defined: 5 mg/L as CaCO3 (0.1 meq/L). The index
+// divides by the alkalinity, so its uncertainty is at least the relative
+// uncertainty of the titration. The interlaboratory standard deviation of
+// the titration to pH 4.5 is about 1.2–1.3 mg/L as CaCO3 at 8–9 mg/L (EPA
+// Method 310.1 / Standard Methods 2320 B precision statement, from memory),
+// so below 5 mg/L the denominator is uncertain by a quarter or more and the
+// ratio moves across the whole 0.8–1.2 band on the titration's error alone.
+// Larson & Skold's (1958) correlation comes from Great Lakes waters of
+// moderate alkalinity; "extrapolation to low alkalinity goes beyond the
+// range of the original data" (as summarised in a corrosion reference,
+// read). A water this soft is corrosive to mild steel on its low alkalinity
+// and buffer capacity anyway; the index adds nothing there.
+const minLarsonSkoldAlkalinity = 1e-4
+
+// larsonSkold returns the Larson–Skold index (Cl⁻ + SO4²⁻)/alkalinity in
+// equivalents of water a with alkalinity alk (eq/L), NaN when neither
+// chloride nor sulfate was measured, and NaN with a note saying the index is
+// not defined when alk is below minLarsonSkoldAlkalinity.
+//
+// References: Larson, T.E. and Skold, R.V. (1958) Corrosion 14(6):285t
+// (from memory).
+func larsonSkold(a water.Analysis, alk float64) (float64, []string) {
+	if !(a.Totals[water.Cl] > 0 || a.Totals[water.S] > 0) {
+		return math.NaN(), nil
+	}
+	if !(alk >= minLarsonSkoldAlkalinity) {
+		return math.NaN(), []string{fmt.Sprintf(
+			"Larson–Skold index not defined: alkalinity %.2g mg/L as CaCO3 is below %.0f mg/L as CaCO3, where the ratio would measure the titration's error rather than the water",
+			alk*1000*water.EquivalentMassCaCO3, minLarsonSkoldAlkalinity*1000*water.EquivalentMassCaCO3)}
+	}
+	return (a.Totals[water.Cl] + 2*a.Totals[water.S]) * a.WaterPerLitre / alk, nil
+}
 
 // maxLangelierIonicStrength is the ionic strength, mol/kg, above which the
 // Davies-based Langelier form of Standard Methods 2330 is not applied

@@ -2,6 +2,7 @@ package saturation
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"scalerisk/water"
@@ -165,5 +166,47 @@ func TestPrecipitationPotential(t *testing.T) {
 	// Barite: 5 µmol/kg Ba at most 1.17 mg/L BaSO4.
 	if b := names["barite"]; b.Alone > 5e-6*233.39*1000 {
 		t.Errorf("barite alone %g mg/L exceeds the barium available", b.Alone)
+	}
+}
+
+// TestLarsonSkold checks the index against the mg/L form of the Illinois
+// definition, L-SI = (1.411·Cl + 1.041·SO4)/alkalinity with Cl and SO4 in
+// mg/L and alkalinity in mg/L as CaCO3 (factors READ: Sacramento State
+// Office of Water Programs glossary; 35 Ill. Adm. Code 604.900), and that a
+// water with almost no alkalinity gets no index but a "not defined" note
+// (the threshold, 5 mg/L as CaCO3, is minLarsonSkoldAlkalinity).
+func TestLarsonSkold(t *testing.T) {
+	const tolLS = 0.002 // relative; the published factors have four digits
+	tests := []struct {
+		name              string
+		cl, so4, alkCaCO3 float64 // mg/L, mg/L, mg/L as CaCO3
+		defined           bool
+	}{
+		{"Great Lakes-like water", 25, 30, 100, true},
+		{"tower water", 280, 380, 120, true},
+		{"just above the threshold", 60, 40, 6, true},
+		{"near-zero alkalinity brine", 19000, 2700, 0.6, false},
+		{"below the threshold", 60, 40, 3, false},
+	}
+	sp := NewSpeciator(nil)
+	for _, tt := range tests {
+		a := newWater(tt.name, 25, map[water.Component]float64{
+			water.Ca: 1e-3, water.Na: tt.cl/35.45e3 + 2*tt.so4/96.06e3, water.Cl: tt.cl / 35.45e3, water.S: tt.so4 / 96.06e3})
+		a.PH, a.Alkalinity = 6.5, tt.alkCaCO3/50043
+		r, err := sp.Speciate(a, Options{})
+		if err != nil {
+			t.Fatalf("%s: %v", tt.name, err)
+		}
+		ix, notes := sp.ClassicIndices(r, Options{})
+		if !tt.defined {
+			if !math.IsNaN(ix.LarsonSkold) || !strings.Contains(strings.Join(notes, " "), "Larson–Skold index not defined") {
+				t.Errorf("%s: Larson–Skold %g with notes %q, want not defined (alkalinity %g mg/L as CaCO3)", tt.name, ix.LarsonSkold, notes, tt.alkCaCO3)
+			}
+			continue
+		}
+		want := (1.411*tt.cl + 1.041*tt.so4) / tt.alkCaCO3
+		if math.Abs(ix.LarsonSkold/want-1) > tolLS {
+			t.Errorf("%s: Larson–Skold = %.4f, want %.4f ± %g %% (35 IAC 604.900 mg/L form)", tt.name, ix.LarsonSkold, want, tolLS*100)
+		}
 	}
 }
