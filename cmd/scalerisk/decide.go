@@ -362,9 +362,8 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 		Long: "blend mixes the first sample of A.csv (or --sample NAME) with the first sample of B.csv\n" +
 			"(or a second --sample NAME) by volume, F being the share of the first water, and assesses\n" +
 			"the blend like assess. With one input (a file or --demo) the two waters are its first two\n" +
-			"samples, or the two named by --sample. " +
-			"the blend like assess. The blend is computed from the totals and re-speciated, never by\n" +
-			"averaging indices.\n\n" + reports.Caution,
+			"samples, or the two named by --sample. The blend is computed from the totals and\n" +
+			"re-speciated, never by averaging indices.\n\n" + reports.Caution,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, opt, ropt, err := c.setup(cmd)
 			if err != nil {
