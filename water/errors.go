@@ -1,6 +1,7 @@
 package water
 
 import (
+	"errors"
 	"fmt"
 	"strings"
 	"unicode/utf8"
@@ -67,3 +68,22 @@ func clipText(s string) string {
 	b.WriteString("…")
 	return b.String()
 }
+
+// Messages of the errors Read reports; the cause of an *InputError.
+var (
+	errLineTooLong    = errors.New("line longer than 1 MiB")
+	errEmptyFile      = errors.New("empty file")
+	errNoSamples      = errors.New("no samples below the header")
+	errNoHeader       = errors.New("no usable header: none of the columns is a known analyte or field")
+	errBinary         = errors.New("not a csv text file (binary data)")
+	errNotUTF8        = errors.New("header is not utf-8 text: save the file as csv utf-8")
+	errUTF16          = errors.New("file is utf-16 text: save it as csv utf-8")
+	errNegative       = errors.New("negative concentration")
+	errAboveRange     = errors.New("above range: dilute and re-measure")
+	errUnknownColumn  = errors.New("unknown column: not a known analyte or field")
+	errNoHeaderName   = errors.New("value in a column with no header")
+	errBlankSample    = errors.New("sample name is blank")
+	errBlankAnalyte   = errors.New("analyte is blank")
+	errNotAField      = errors.New("not an analyte or a field of a sample")
+	errNotNumberComma = errors.New("not a number: no thousands separators or decimal commas (write 1234 or 12.5)")
+)
