@@ -95,113 +95,18 @@ func NewModel(t *Table) (*Model, error) {
 		m.masters = append(m.masters, masterNames[c])
 		m.compMaster[c] = len(m.masters) - 1
 	}
-	nm := len(m.masters)
-	mIdx := map[string]int{}
+	rd := &reducer{t: t, nm: len(m.masters), masters: map[string]int{}, memo: map[string]*reduced{}, visiting: map[string]bool{}}
 	for i, n := range m.masters {
 		e, ok := t.Entry(n)
 		if !ok || e.Phase != Master {
 			return nil, fmt.Errorf("thermodynamic table: master species %s missing", n)
 		}
-		mIdx[n] = i
-	}
-	// Reduce every entry, memoised, by recursion over equation terms.
-	type reduced struct {
-		comp []float64 // over masters
-		w    float64
-		logK []lkTerm
-	}
-	memo := map[string]*reduced{}
-	visiting := map[string]bool{}
-	var reduce func(name string) (*reduced, error)
-	reduce = func(name string) (*reduced, error) {
-		if r, ok := memo[name]; ok {
-			return r, nil
-		}
-		if j, ok := mIdx[name]; ok {
-			r := &reduced{comp: make([]float64, nm)}
-			r.comp[j] = 1
-			memo[name] = r
-			return r, nil
-		}
-		if visiting[name] {
-			return nil, fmt.Errorf("thermodynamic table: %s is defined in terms of itself", name)
-		}
-		visiting[name] = true
-		defer delete(visiting, name)
-		i, ok := t.index[name]
-		if !ok {
-			return nil, fmt.Errorf("thermodynamic table: %s not defined", name)
-		}
-		e := &t.entries[i]
-		var self float64
-		for _, tm := range e.terms {
-			if tm.name == e.Name {
-				self = tm.coef
-			}
-		}
-		// For aqueous species solve Σν log a = log K for the species; for
-		// minerals and gases write dissolution (self coefficient −1).
-		r := &reduced{comp: make([]float64, nm)}
-		scale := -1 / self // aqueous: log a_s = (logK − Σ_{i≠s} ν_i log a_i)/ν_s
-		kcoef := 1 / self
-		if e.Phase == Mineral || e.Phase == Gas {
-			scale = 1 / -self // exponents e_i = ν_i/(−ν_m)
-			kcoef = 1 / -self // log Ksp = log K/(−ν_m)
-		}
-		r.logK = append(r.logK, lkTerm{kcoef, e})
-		for _, tm := range e.terms {
-			if tm.name == e.Name {
-				continue
-			}
-			if tm.name == "H2O" {
-				r.w += scale * tm.coef
-				continue
-			}
-			sub, err := reduce(tm.name)
-			if err != nil {
-				return nil, err
-			}
-			f := scale * tm.coef
-			for j, v := range sub.comp {
-				r.comp[j] += f * v
-			}
-			r.w += f * sub.w
-			// Aqueous: log a_s gains f·(log K terms of the sub-species).
-			// Minerals: log K_eff = log Ksp − Σ e_i·(log K terms of species i).
-			sign := 1.0
-			if e.Phase == Mineral || e.Phase == Gas {
-				sign = -1
-			}
-			for _, lt := range sub.logK {
-				r.logK = append(r.logK, lkTerm{sign * f * lt.coef, lt.entry})
-			}
-		}
-		memo[name] = r
-		return r, nil
-	}
-	sparse := func(comp []float64) []nuTerm {
-		var out []nuTerm
-		for j, v := range comp {
-			if math.Abs(v) > 1e-12 {
-				out = append(out, nuTerm{j, v})
-			}
-		}
-		return out
-	}
-	params := func(e *Entry) activityParams {
-		p := activityParams{z: e.Charge, z2: e.Charge * e.Charge, neutral: e.Charge == 0, size: defaultIonSize}
-		if !math.IsNaN(e.IonSize) {
-			p.size = e.IonSize
-		}
-		if !math.IsNaN(e.IonSize) && !math.IsNaN(e.TJB) {
-			p.hasTJ, p.tjB = true, e.TJB
-		}
-		return p
+		rd.masters[n] = i
 	}
 	for j, n := range m.masters {
 		e := &t.entries[t.index[n]]
 		m.species = append(m.species, species{name: n, nu: []nuTerm{{j, 1}},
-			alk: masterAlkalinity[n], act: params(e), entry: e, master: j})
+			alk: masterAlkalinity[n], act: entryActivityParams(e), entry: e, master: j})
 		m.speciesIdx[n] = j
 	}
 	for i := range t.entries {
@@ -209,40 +114,12 @@ func NewModel(t *Table) (*Model, error) {
 		if e.Phase == Master {
 			continue
 		}
-		r, err := reduce(e.Name)
+		r, err := rd.reduce(e.Name)
 		if err != nil {
 			return nil, err
 		}
-		switch e.Phase {
-		case Aqueous:
-			s := species{name: e.Name, nu: sparse(r.comp), nuW: r.w, logK: r.logK,
-				act: params(e), entry: e, master: -1}
-			var z float64
-			for _, nt := range s.nu {
-				s.alk += nt.coef * masterAlkalinity[m.masters[nt.j]]
-				z += nt.coef * m.species[nt.j].act.z
-			}
-			if math.Abs(z-e.Charge) > 1e-9 {
-				return nil, fmt.Errorf("thermodynamic table line %d: %s: charge %g does not match its reaction (%g)", e.Line, e.Name, e.Charge, z)
-			}
-			m.speciesIdx[e.Name] = len(m.species)
-			m.species = append(m.species, s)
-		case Mineral, Gas:
-			p := phase{name: e.Name, formula: e.Formula, nu: sparse(r.comp), nuW: r.w, logK: r.logK, entry: e}
-			var z float64
-			for _, nt := range p.nu {
-				z += nt.coef * m.species[nt.j].act.z
-			}
-			if math.Abs(z) > 1e-9 {
-				return nil, fmt.Errorf("thermodynamic table line %d: %s: dissolution reaction is not charge balanced", e.Line, e.Name)
-			}
-			if e.Phase == Mineral {
-				m.mineralIdx[e.Name] = len(m.minerals)
-				m.minerals = append(m.minerals, p)
-			} else {
-				m.gasIdx[e.Name] = len(m.gases)
-				m.gases = append(m.gases, p)
-			}
+		if err := m.add(e, r); err != nil {
+			return nil, err
 		}
 	}
 	for i := range m.species {
@@ -256,6 +133,152 @@ func NewModel(t *Table) (*Model, error) {
 	}
 	m.pitzer = sync.OnceValues(func() (*pitzerSet, error) { return newPitzerSet(m) })
 	return m, nil
+}
+
+// reduced is an entry written over the masters: its composition, its
+// water and the log K terms of its reduced reaction.
+type reduced struct {
+	comp []float64 // over masters
+	w    float64
+	logK []lkTerm
+}
+
+// reducer reduces the entries of a table to the masters, memoised, by
+// recursion over equation terms.
+type reducer struct {
+	t        *Table
+	nm       int            // number of masters
+	masters  map[string]int // master index by name
+	memo     map[string]*reduced
+	visiting map[string]bool
+}
+
+// reduce returns entry name written over the masters.
+func (rd *reducer) reduce(name string) (*reduced, error) {
+	if r, ok := rd.memo[name]; ok {
+		return r, nil
+	}
+	if j, ok := rd.masters[name]; ok {
+		r := &reduced{comp: make([]float64, rd.nm)}
+		r.comp[j] = 1
+		rd.memo[name] = r
+		return r, nil
+	}
+	if rd.visiting[name] {
+		return nil, fmt.Errorf("thermodynamic table: %s is defined in terms of itself", name)
+	}
+	rd.visiting[name] = true
+	defer delete(rd.visiting, name)
+	i, ok := rd.t.index[name]
+	if !ok {
+		return nil, fmt.Errorf("thermodynamic table: %s not defined", name)
+	}
+	e := &rd.t.entries[i]
+	var self float64
+	for _, tm := range e.terms {
+		if tm.name == e.Name {
+			self = tm.coef
+		}
+	}
+	// For aqueous species solve Σν log a = log K for the species; for
+	// minerals and gases write dissolution (self coefficient −1).
+	r := &reduced{comp: make([]float64, rd.nm)}
+	scale := -1 / self // aqueous: log a_s = (logK − Σ_{i≠s} ν_i log a_i)/ν_s
+	kcoef := 1 / self
+	if e.Phase == Mineral || e.Phase == Gas {
+		scale = 1 / -self // exponents e_i = ν_i/(−ν_m)
+		kcoef = 1 / -self // log Ksp = log K/(−ν_m)
+	}
+	r.logK = append(r.logK, lkTerm{kcoef, e})
+	for _, tm := range e.terms {
+		if tm.name == e.Name {
+			continue
+		}
+		if tm.name == "H2O" {
+			r.w += scale * tm.coef
+			continue
+		}
+		sub, err := rd.reduce(tm.name)
+		if err != nil {
+			return nil, err
+		}
+		f := scale * tm.coef
+		for j, v := range sub.comp {
+			r.comp[j] += f * v
+		}
+		r.w += f * sub.w
+		// Aqueous: log a_s gains f·(log K terms of the sub-species).
+		// Minerals: log K_eff = log Ksp − Σ e_i·(log K terms of species i).
+		sign := 1.0
+		if e.Phase == Mineral || e.Phase == Gas {
+			sign = -1
+		}
+		for _, lt := range sub.logK {
+			r.logK = append(r.logK, lkTerm{sign * f * lt.coef, lt.entry})
+		}
+	}
+	rd.memo[name] = r
+	return r, nil
+}
+
+// sparseNu returns the nonzero coefficients of comp.
+func sparseNu(comp []float64) []nuTerm {
+	var out []nuTerm
+	for j, v := range comp {
+		if math.Abs(v) > 1e-12 {
+			out = append(out, nuTerm{j, v})
+		}
+	}
+	return out
+}
+
+// entryActivityParams returns what the activity models need of entry e.
+func entryActivityParams(e *Entry) activityParams {
+	p := activityParams{z: e.Charge, z2: e.Charge * e.Charge, neutral: e.Charge == 0, size: defaultIonSize}
+	if !math.IsNaN(e.IonSize) {
+		p.size = e.IonSize
+	}
+	if !math.IsNaN(e.IonSize) && !math.IsNaN(e.TJB) {
+		p.hasTJ, p.tjB = true, e.TJB
+	}
+	return p
+}
+
+// add appends entry e, reduced to r, to the species, minerals or gases of
+// m, checking that its charge balances over the masters.
+func (m *Model) add(e *Entry, r *reduced) error {
+	switch e.Phase {
+	case Aqueous:
+		s := species{name: e.Name, nu: sparseNu(r.comp), nuW: r.w, logK: r.logK,
+			act: entryActivityParams(e), entry: e, master: -1}
+		var z float64
+		for _, nt := range s.nu {
+			s.alk += nt.coef * masterAlkalinity[m.masters[nt.j]]
+			z += nt.coef * m.species[nt.j].act.z
+		}
+		if math.Abs(z-e.Charge) > 1e-9 {
+			return fmt.Errorf("thermodynamic table line %d: %s: charge %g does not match its reaction (%g)", e.Line, e.Name, e.Charge, z)
+		}
+		m.speciesIdx[e.Name] = len(m.species)
+		m.species = append(m.species, s)
+	case Mineral, Gas:
+		p := phase{name: e.Name, formula: e.Formula, nu: sparseNu(r.comp), nuW: r.w, logK: r.logK, entry: e}
+		var z float64
+		for _, nt := range p.nu {
+			z += nt.coef * m.species[nt.j].act.z
+		}
+		if math.Abs(z) > 1e-9 {
+			return fmt.Errorf("thermodynamic table line %d: %s: dissolution reaction is not charge balanced", e.Line, e.Name)
+		}
+		if e.Phase == Mineral {
+			m.mineralIdx[e.Name] = len(m.minerals)
+			m.minerals = append(m.minerals, p)
+		} else {
+			m.gasIdx[e.Name] = len(m.gases)
+			m.gases = append(m.gases, p)
+		}
+	}
+	return nil
 }
 
 // DefaultModel returns the model of DefaultTable.

@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 	"strings"
 
 	"scalerisk/water"
@@ -275,158 +274,28 @@ func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, mod
 		}
 		totals[m.compMaster[c]] = a.Totals[c]
 	}
-	cj := m.compMaster[water.C]
-	hasAlk := !math.IsNaN(a.Alkalinity)
-	hasPH := !math.IsNaN(a.PH)
-	var warnings []string
-	alk := a.Alkalinity
-	carbon := a.Totals[water.C]
-	carbonKnown := a.CarbonKnown
-
-	if !hasAlk && !carbonKnown && a.Totals[water.Ca]+a.Totals[water.Mg] > 0 {
-		warnings = append(warnings, "no alkalinity or inorganic carbon reported: calcium carbonate and the other carbonate minerals are not assessed")
+	cs := carbonStep{alk: a.Alkalinity, carbon: a.Totals[water.C], carbonKnown: a.CarbonKnown}
+	if math.IsNaN(a.Alkalinity) && !cs.carbonKnown && a.Totals[water.Ca]+a.Totals[water.Mg] > 0 {
+		cs.warnings = append(cs.warnings, "no alkalinity or inorganic carbon reported: calcium carbonate and the other carbonate minerals are not assessed")
 	}
-
-	// Step 1: fix carbon (or alkalinity) at the pH measurement temperature.
-	var fixed bool
-	var fixedProblem problem
-	if hasPH {
-		if a.PH < 0 || a.PH > 14 {
-			return nil, fmt.Errorf("%w: pH %.4g is outside 0–14", ErrInconsistent, a.PH)
-		}
-		if math.IsNaN(a.PHTemperature) || a.PHTemperature < minTemperature || a.PHTemperature > maxTemperature {
-			return nil, fmt.Errorf("%w: the pH was measured at %.4g °C, outside 0–%d °C", ErrInconsistent, a.PHTemperature, maxTemperature)
-		}
-		if a.PHTemperature > warnTemperature {
-			warnings = append(warnings, fmt.Sprintf("the pH was measured at %.4g °C, above 100 °C: constants are extrapolated", a.PHTemperature))
-		}
-		key := newFixKey(a, model)
-		reuse := sp.fixCached && sp.fix.key == key && !(opt.Carbonate == Closed && t == a.PHTemperature)
-		if reuse {
-			carbon, carbonKnown, alk = sp.fix.carbon, true, sp.fix.alk
-			warnings = append(warnings, sp.fix.warnings...)
-			fixed = true
-		} else {
-			p := problem{t: a.PHTemperature, model: model, totals: totals, hRow: rowFixed,
-				lnaH: -a.PH * math.Ln10, cRow: rowAbsent}
-			switch {
-			case hasAlk && (!carbonKnown || carbon == 0) && a.PH < acidPH:
-				// Below the end point of the alkalinity titration the
-				// alkalinity holds no carbonate: it cannot fix carbon.
-				g, ok := m.gasIdx["CO2(g)"]
-				if !ok {
-					return nil, fmt.Errorf("%w: pH %.4g is below %.1f and no inorganic carbon is reported", ErrInconsistent, a.PH, acidPH)
-				}
-				p.cRow, p.gas, p.logP = rowGas, g, LogPCO2Air
-				warnings = append(warnings, fmt.Sprintf(
-					"pH %.3g is below %.1f, where alkalinity holds no carbonate: inorganic carbon is taken in equilibrium with air CO2 (10^%.1f atm); report DIC for a better answer",
-					a.PH, acidPH, LogPCO2Air))
-			case hasAlk && (!carbonKnown || carbon == 0):
-				p.cRow = rowAlk
-				p.alk = alk
-			case carbonKnown && carbon > 0:
-				totals[cj] = carbon
-				p.cRow = rowMass
-			}
-			if err := s.solve(p, true); err != nil {
-				if p.cRow == rowAlk {
-					// Is the alkalinity already exceeded by the species other
-					// than carbonate at this pH (hydroxide, silicate, borate,
-					// phosphate)? Then no positive carbon fits.
-					q := p
-					q.cRow = rowAbsent
-					if s.solve(q, false) == nil {
-						if _, other, _ := carbonState(s); other >= alk {
-							return nil, fmt.Errorf("%w: pH %.4g and alkalinity %.4g meq/kg do not fit: the non-carbonate species alone give %.4g meq/kg",
-								ErrInconsistent, a.PH, 1000*alk, 1000*other)
-						}
-					}
-				}
-				return nil, fmt.Errorf("fixing inorganic carbon at pH %.4g: %w", a.PH, err)
-			}
-			c1, alk1, co2 := carbonState(s)
-			if lp := logPCO2(s); p.cRow == rowAlk && lp > implausibleLogPCO2 {
-				warnings = append(warnings, fmt.Sprintf(
-					"pH and alkalinity put the water's CO2 at 10^%.2f atm, more than %.0f atm: check the pH and the alkalinity (or report DIC)",
-					lp, math.Pow(10, implausibleLogPCO2)))
-			}
-			if p.cRow == rowAlk && carbonKnown && carbon > 0 && math.Abs(c1-carbon) > 0.1*carbon {
-				warnings = append(warnings, fmt.Sprintf(
-					"reported inorganic carbon (%.4g mmol/kg) and the value from pH and alkalinity (%.4g mmol/kg) differ by more than 10 %%; pH and alkalinity used",
-					1000*carbon, 1000*c1))
-			}
-			if !math.IsNaN(a.FreeCO2) && a.FreeCO2 > 0 && (co2 > 2*a.FreeCO2 || co2 < a.FreeCO2/2) {
-				warnings = append(warnings, fmt.Sprintf(
-					"reported free CO2 (%.3g mmol/kg) and the value from pH and alkalinity (%.3g mmol/kg) differ by more than a factor of 2: check the pH (free CO2 is often lost before analysis)",
-					1000*a.FreeCO2, 1000*co2))
-			}
-			carbon, carbonKnown = c1, true
-			alk = alk1
-			fixed, fixedProblem = true, p
-			sp.fix = carbonFix{key: key, carbon: carbon, alk: alk, warnings: slices.Clone(warnings)}
-			sp.fixCached = true
-		}
-	} else if hasAlk && !carbonKnown && alk != 0 && opt.Carbonate != FixedPCO2 {
-		return nil, fmt.Errorf("%w: pH is needed to find inorganic carbon from alkalinity (or report DIC)", ErrInconsistent)
+	if err := sp.fixCarbon(s, &cs, a, opt, t, model, totals); err != nil {
+		return nil, err
 	}
-
-	// Step 2: evaluate at t.
-	p := problem{t: t, model: model, totals: totals, cRow: rowAbsent}
-	if carbonKnown && carbon > 0 {
-		totals[cj] = carbon
-		p.cRow = rowMass
+	p, err := evaluationProblem(m, &cs, a, opt, t, model, totals)
+	if err != nil {
+		return nil, err
 	}
-	alkKnown := hasAlk || fixed
-	switch opt.Carbonate {
-	case Closed:
-		if fixed && t == a.PHTemperature {
-			// The solver still holds the solution at the measured pH.
-			r := collect(s, a, fixedProblem)
-			r.Warnings = append(warnings, r.Warnings...)
-			return sp.finish(r, a, t), nil
-		}
-		if alkKnown {
-			p.hRow, p.alk = rowAlk, alk
-		} else {
-			p.hRow = rowCharge
-			warnings = append(warnings, "pH and alkalinity unknown: pH from charge balance")
-		}
-	case ChargeBalance:
-		p.hRow = rowCharge
-	case FixedPH:
-		if opt.PH < 0 || opt.PH > 14 {
-			return nil, fmt.Errorf("fixed pH %.4g is outside 0–14", opt.PH)
-		}
-		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
-	case FixedPHAlkalinity:
-		if opt.PH < 0 || opt.PH > 14 {
-			return nil, fmt.Errorf("fixed pH %.4g is outside 0–14", opt.PH)
-		}
-		if !alkKnown {
-			return nil, errors.New("alkalinity is needed to hold pH and alkalinity together")
-		}
-		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
-		p.cRow, p.alk = rowAlk, alk
-	case FixedPCO2:
-		g, ok := m.gasIdx["CO2(g)"]
-		if !ok {
-			return nil, errors.New("thermodynamic table has no CO2(g)")
-		}
-		if !alkKnown {
-			return nil, errors.New("alkalinity is needed for equilibrium with a CO2 partial pressure")
-		}
-		logP := opt.LogPCO2
-		if logP == 0 {
-			logP = LogPCO2Air
-		}
-		p.hRow, p.alk = rowAlk, alk
-		p.cRow, p.gas, p.logP = rowGas, g, logP
+	if opt.Carbonate == Closed && cs.fixed && t == a.PHTemperature {
+		// The solver still holds the solution at the measured pH.
+		r := collect(s, a, cs.problem)
+		r.Warnings = append(cs.warnings, r.Warnings...)
+		return sp.finish(r, a, t), nil
 	}
 	if err := s.solve(p, true); err != nil {
 		return nil, err
 	}
 	r := collect(s, a, p)
-	r.Warnings = append(warnings, r.Warnings...)
+	r.Warnings = append(cs.warnings, r.Warnings...)
 	return sp.finish(r, a, t), nil
 }
 
@@ -451,59 +320,6 @@ func (sp *Speciator) engine(model ActivityModel) (*solver, error) {
 // (pH and alkalinity that do not fit together, a pH outside 0–14, a pH
 // temperature out of range): a fault of the input, not of the computation.
 var ErrInconsistent = errors.New("inconsistent analysis")
-
-// acidPH is the pH below which alkalinity cannot fix inorganic carbon: the
-// end point of the total-alkalinity titration (about 4.5; Standard Methods
-// 2320, from memory).
-const acidPH = 4.5
-
-// implausibleLogPCO2 is log10 of a CO2 partial pressure, atm, above which
-// a water's carbonate system (fixed from pH and alkalinity) is flagged:
-// 3 atm, beyond any open water at 1 atm total pressure.
-const implausibleLogPCO2 = 0.5
-
-// logPCO2 returns log10 of the CO2 partial pressure, atm, in equilibrium
-// with the solver's current solution (NaN without carbon or CO2(g)).
-func logPCO2(s *solver) float64 {
-	m := s.m
-	g, ok := m.gasIdx["CO2(g)"]
-	if !ok {
-		return math.NaN()
-	}
-	gp := &m.gases[g]
-	v := gp.nuW*s.lnaw/math.Ln10 - evalLogK(gp.logK, s.p.t)
-	for _, nt := range gp.nu {
-		if !s.live[nt.j] {
-			return math.NaN()
-		}
-		v += nt.coef * (s.lnm[nt.j] + s.lng[nt.j]) / math.Ln10
-	}
-	return v
-}
-
-// carbonState returns total inorganic carbon (mol/kg), alkalinity (eq/kg)
-// and the molality of CO2[0] of the current solution of solver s.
-func carbonState(s *solver) (carbon, alk, co2 float64) {
-	m := s.m
-	cj := m.compMaster[water.C]
-	co2i, hasCO2 := m.speciesIdx["CO2[0]"]
-	for i := range m.species {
-		if !s.live[i] {
-			continue
-		}
-		mi := s.ms[i]
-		alk += m.species[i].alk * mi
-		for _, nt := range m.species[i].nu {
-			if nt.j == cj {
-				carbon += nt.coef * mi
-			}
-		}
-	}
-	if hasCO2 && s.live[co2i] {
-		co2 = s.ms[co2i]
-	}
-	return carbon, alk, co2
-}
 
 // collect turns the state of solver s into a Result.
 func collect(s *solver, a water.Analysis, p problem) *Result {
@@ -559,7 +375,37 @@ func collect(s *solver, a water.Analysis, p problem) *Result {
 		}
 		r.LogPCO2 = v
 	}
-	var extrapolated, constant []string
+	extrapolated := collectMinerals(s, r, loga, present, logaw, p.t)
+	var constant []string
+	if math.Abs(p.t-25) > 5 {
+		significant := 1e-2 * maxTotal(p.totals)
+		for i := len(m.masters); i < len(m.species); i++ {
+			if s.live[i] && m.species[i].entry.TemperatureFunction() == "constant" && s.ms[i] > significant {
+				constant = append(constant, m.species[i].name)
+			}
+		}
+	}
+	if len(extrapolated) > 0 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("log K outside its fitted temperature range at %.4g °C for: %s",
+			p.t, strings.Join(extrapolated, ", ")))
+	}
+	if len(constant) > 0 {
+		r.Warnings = append(r.Warnings, fmt.Sprintf("log K known at 25 °C only, used unchanged at %.4g °C, for significant species: %s",
+			p.t, strings.Join(constant, ", ")))
+	}
+	if s.pitzerActive() {
+		r.Warnings = append(r.Warnings, s.pitzerWarnings(p.t)...)
+	}
+	return r
+}
+
+// collectMinerals appends to r the saturation state of every mineral whose
+// components are present (loga: log a of each master; logaw: log a_w) and
+// returns those whose log K is used outside its range at t °C.
+func collectMinerals(s *solver, r *Result, loga []float64, present []bool, logaw, t float64) []string {
+	m := s.m
+	cj := m.compMaster[water.C]
+	var extrapolated []string
 	for i := range m.minerals {
 		mn := &m.minerals[i]
 		ok := true
@@ -585,30 +431,11 @@ func collect(s *solver, a water.Analysis, p problem) *Result {
 		own := s.mineralOwnLogK[i]
 		r.Minerals = append(r.Minerals, MineralResult{Name: mn.name, Formula: mn.formula,
 			SI: iap - logK, LogIAP: iap - logK + own, LogK: own, Source: mn.entry.Source})
-		if e, bad := outOfRange(mn.logK, p.t); bad {
+		if e, bad := outOfRange(mn.logK, t); bad {
 			extrapolated = append(extrapolated, fmt.Sprintf("%s (via %s, %g–%g °C)", mn.name, e.Name, e.TMin, e.TMax))
 		}
 	}
-	if math.Abs(p.t-25) > 5 {
-		significant := 1e-2 * maxTotal(p.totals)
-		for i := len(m.masters); i < len(m.species); i++ {
-			if s.live[i] && m.species[i].entry.TemperatureFunction() == "constant" && s.ms[i] > significant {
-				constant = append(constant, m.species[i].name)
-			}
-		}
-	}
-	if len(extrapolated) > 0 {
-		r.Warnings = append(r.Warnings, fmt.Sprintf("log K outside its fitted temperature range at %.4g °C for: %s",
-			p.t, strings.Join(extrapolated, ", ")))
-	}
-	if len(constant) > 0 {
-		r.Warnings = append(r.Warnings, fmt.Sprintf("log K known at 25 °C only, used unchanged at %.4g °C, for significant species: %s",
-			p.t, strings.Join(constant, ", ")))
-	}
-	if s.pitzerActive() {
-		r.Warnings = append(r.Warnings, s.pitzerWarnings(p.t)...)
-	}
-	return r
+	return extrapolated
 }
 
 func maxTotal(t []float64) float64 {
