@@ -562,36 +562,9 @@ func (s *solver) updateWater() {
 // ln I, then ln a_w). It returns the largest absolute scaled residual and
 // the sum of squares.
 func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
-	m, p := s.m, &s.p
-	nv := len(s.vars)
-	cI, cW := nv, nv+1 // columns (and rows) of ln I and ln a_w
-	n := nv + 2
+	n := len(s.vars) + 2
 	I := math.Exp(s.lnI)
-	sqrtI := math.Sqrt(I)
-	clg, cdlg := s.clg, s.cdlg
-	classModel := p.model
-	pitzer := s.pitzerActive()
-	if pitzer {
-		// Species outside the Pitzer parameter set keep ion-association γ.
-		classModel = TruesdellJones
-	}
-	for k := range m.classes {
-		lg, dlg := logGammaDeriv(classModel, &m.classes[k], s.dh, I, sqrtI)
-		clg[k], cdlg[k] = math.Ln10*lg, math.Ln10*dlg
-	}
-	for i := range m.species {
-		if s.live[i] {
-			c := m.species[i].class
-			s.lng[i], s.dlng[i] = clg[c], cdlg[c]
-		}
-	}
-	if pitzer {
-		s.pitzerApply(I)
-	}
-	hFixed := p.hRow == rowFixed
-	if hFixed {
-		s.lnm[0] = p.lnaH - s.lng[0]
-	}
+	pitzer := s.setActivity(I)
 	R := s.resid[:n]
 	for k := range R {
 		R[k] = 0
@@ -612,10 +585,60 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	for l, j := range s.vars {
 		col[j] = l
 	}
-	// Sums for the ionic-strength and water rows and their derivatives:
-	// I2 = Σz²m, S = Σm.
-	var I2, S float64
-	var dI2, dS [34]float64
+	var sums speciesSums
+	s.speciesRows(R, J, col, I, &sums)
+	s.componentRows(R, J, col, I)
+	s.closureRows(R, J, I, pitzer, &sums)
+	return s.scaleRows(R, J)
+}
+
+// setActivity sets ln γ and d ln γ/dI of every live species at ionic
+// strength I (and ln m of H+ when pH is fixed); it reports whether the
+// Pitzer model set is active.
+func (s *solver) setActivity(I float64) (pitzer bool) {
+	m, p := s.m, &s.p
+	sqrtI := math.Sqrt(I)
+	clg, cdlg := s.clg, s.cdlg
+	classModel := p.model
+	pitzer = s.pitzerActive()
+	if pitzer {
+		// Species outside the Pitzer parameter set keep ion-association γ.
+		classModel = TruesdellJones
+	}
+	for k := range m.classes {
+		lg, dlg := logGammaDeriv(classModel, &m.classes[k], s.dh, I, sqrtI)
+		clg[k], cdlg[k] = math.Ln10*lg, math.Ln10*dlg
+	}
+	for i := range m.species {
+		if s.live[i] {
+			c := m.species[i].class
+			s.lng[i], s.dlng[i] = clg[c], cdlg[c]
+		}
+	}
+	if pitzer {
+		s.pitzerApply(I)
+	}
+	if p.hRow == rowFixed {
+		s.lnm[0] = p.lnaH - s.lng[0]
+	}
+	return pitzer
+}
+
+// speciesSums are the sums over species for the ionic-strength and water
+// rows, I2 = Σz²m and S = Σm, and their derivatives by each unknown.
+type speciesSums struct {
+	I2, S   float64
+	dI2, dS [34]float64
+}
+
+// speciesRows computes the molality of every live species and adds it to
+// the mass-balance, alkalinity and charge rows of R and to sums; with J
+// non-nil, their derivatives too.
+func (s *solver) speciesRows(R, J []float64, col []int, I float64, sums *speciesSums) {
+	m := s.m
+	hFixed := s.p.hRow == rowFixed
+	n := len(R)
+	cI, cW := n-2, n-1
 	for i := range m.species {
 		if !s.live[i] {
 			continue
@@ -652,9 +675,9 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		if s.chgRow >= 0 {
 			R[s.chgRow] += z * ms
 		}
-		I2 += z * z * ms
-		S += ms
-		if !jac {
+		sums.I2 += z * z * ms
+		sums.S += ms
+		if J == nil {
 			continue
 		}
 		// ∂m_s/∂ln m_l = m_s·ν_sl, ∂m_s/∂ln I = m_s·D·I, ∂m_s/∂ln a_w = m_s·ν_sW.
@@ -680,11 +703,19 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 			add(J[s.chgRow*n:(s.chgRow+1)*n], z)
 		}
 		if z != 0 {
-			add(dI2[:n], z*z)
+			add(sums.dI2[:n], z*z)
 		}
-		add(dS[:n], 1)
+		add(sums.dS[:n], 1)
 	}
-	// Finish the component rows: subtract totals, scale.
+}
+
+// componentRows finishes the rows of the components: subtracts the totals
+// and alkalinity, computes the gas row, and sets each row's scale.
+func (s *solver) componentRows(R, J []float64, col []int, I float64) {
+	m, p := s.m, &s.p
+	hFixed := p.hRow == rowFixed
+	n := len(R)
+	cI, cW := n-2, n-1
 	for k, j := range s.vars {
 		var sc float64
 		switch s.rows[k] {
@@ -705,13 +736,13 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 				if !(nt.j == 0 && hFixed) {
 					dv += nt.coef * s.dlng[nt.j]
 				}
-				if jac {
+				if J != nil {
 					if l := col[nt.j]; l >= 0 {
 						J[k*n+l] += nt.coef
 					}
 				}
 			}
-			if jac {
+			if J != nil {
 				J[k*n+cI] += dv * I
 				J[k*n+cW] += g.nuW
 			}
@@ -723,40 +754,52 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		}
 		s.scale[k] = sc
 	}
-	// Ionic strength: ln(½Σz²m) − ln I = 0.
-	R[cI] = math.Log(I2/2) - s.lnI
+}
+
+// closureRows sets the ionic-strength row, ln(½Σz²m) − ln I = 0, and the
+// water row, ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity); under
+// Pitzer ln a_w + φ·M_w·Σm = 0 with φ of the last refresh.
+func (s *solver) closureRows(R, J []float64, I float64, pitzer bool, sums *speciesSums) {
+	n := len(R)
+	cI, cW := n-2, n-1
+	R[cI] = math.Log(sums.I2/2) - s.lnI
 	s.scale[cI] = 1
-	// Water: ln a_w − ln(1 − 0.017 Σm) = 0 (see waterActivity); under
-	// Pitzer ln a_w + φ·M_w·Σm = 0 with φ of the last refresh.
-	awCalc := waterActivity(S)
+	awCalc := waterActivity(sums.S)
 	R[cW] = s.lnaw - math.Log(awCalc)
 	if pitzer {
-		R[cW] = s.lnaw + s.pz.phi*waterMolarMass*S
+		R[cW] = s.lnaw + s.pz.phi*waterMolarMass*sums.S
 	}
 	s.scale[cW] = 1
-	if jac {
-		row := J[cI*n : (cI+1)*n]
-		for l := 0; l < n; l++ {
-			row[l] = dI2[l] / I2
-		}
-		row[cI]--
-		row = J[cW*n : (cW+1)*n]
-		c := 0.0
-		if awCalc > waterActivityFloor {
-			c = waterActivitySlope / awCalc
-		}
-		if pitzer {
-			c = s.pz.phi * waterMolarMass
-		}
-		for l := 0; l < n; l++ {
-			row[l] = c * dS[l]
-		}
-		row[cW]++
+	if J == nil {
+		return
 	}
+	row := J[cI*n : (cI+1)*n]
+	for l := 0; l < n; l++ {
+		row[l] = sums.dI2[l] / sums.I2
+	}
+	row[cI]--
+	row = J[cW*n : (cW+1)*n]
+	c := 0.0
+	if awCalc > waterActivityFloor {
+		c = waterActivitySlope / awCalc
+	}
+	if pitzer {
+		c = s.pz.phi * waterMolarMass
+	}
+	for l := 0; l < n; l++ {
+		row[l] = c * sums.dS[l]
+	}
+	row[cW]++
+}
+
+// scaleRows divides each row of R (and J) by its scale and returns the
+// largest absolute scaled residual and the sum of squares.
+func (s *solver) scaleRows(R, J []float64) (maxAbs, sumSq float64) {
+	n := len(R)
 	for k := 0; k < n; k++ {
 		inv := 1 / s.scale[k]
 		R[k] *= inv
-		if jac {
+		if J != nil {
 			row := J[k*n : (k+1)*n]
 			for l := range row {
 				row[l] *= inv
