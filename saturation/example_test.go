@@ -83,5 +83,5 @@ func ExampleMaxCycles() {
 	}
 	fmt.Printf("at most %.1f cycles; limiting: %s\n", r.MaxCycles, r.Limiting)
 	// Output:
-	// at most 8.2 cycles; limiting: si:calcite
+	// at most 6.3 cycles; limiting: product:Mg_as_CaCO3*SiO2
 }

@@ -15,9 +15,11 @@ import (
 
 // Limit is the highest value one quantity may reach under a treatment
 // regime: a mineral's saturation index ("si:calcite"), the Langelier index
-// ("lsi"), or a concentration in mg/L of a reported form ("mg_per_l:SiO2").
+// ("lsi"), a concentration in mg/L of a reported form ("mg_per_l:SiO2",
+// "mg_per_l:Mg_as_CaCO3"), or a product of such concentrations
+// ("product:Mg_as_CaCO3*SiO2", the trade's magnesium-silicate rule).
 type Limit struct {
-	Quantity string // as written: "si:gypsum", "lsi", "mg_per_l:SiO2"
+	Quantity string // as written: "si:gypsum", "lsi", "mg_per_l:SiO2", "product:Mg_as_CaCO3*SiO2"
 	Max      float64
 	Source   string
 }
@@ -52,11 +54,15 @@ func parseQuantity(q string, m *Model) (kind, arg string, err error) {
 			return "", "", fmt.Errorf("lsi takes no argument")
 		}
 	case "mg_per_l":
-		if _, ok := water.Analytes().Lookup(arg); !ok {
-			return "", "", fmt.Errorf("unknown analyte %q", arg)
+		if _, err := parseForm(arg); err != nil {
+			return "", "", err
+		}
+	case "product":
+		if _, err := parseProduct(arg); err != nil {
+			return "", "", err
 		}
 	default:
-		return "", "", fmt.Errorf("unknown quantity %q (want si:MINERAL, lsi or mg_per_l:ANALYTE)", q)
+		return "", "", fmt.Errorf("unknown quantity %q (want si:MINERAL, lsi, mg_per_l:ANALYTE[_as_CaCO3] or product:FORM*FORM)", q)
 	}
 	return kind, arg, nil
 }
@@ -169,7 +175,8 @@ func LimitProfileNamed(name string) (LimitProfile, error) {
 
 // Value returns the value of a limit quantity for result r with its
 // indices ix (only "lsi" uses them); ok is false when the water lacks what
-// the quantity needs (the mineral's components, calcium or alkalinity).
+// the quantity needs (the mineral's components, calcium or alkalinity, an
+// analyte of a product).
 func (l Limit) Value(r *Result, ix Indices) (v float64, ok bool) {
 	kind, arg, _ := strings.Cut(l.Quantity, ":")
 	switch kind {
@@ -178,13 +185,17 @@ func (l Limit) Value(r *Result, ix Indices) (v float64, ok bool) {
 	case "lsi":
 		return ix.LSI, !math.IsNaN(ix.LSI)
 	case "mg_per_l":
-		an, found := water.Analytes().Lookup(arg)
-		c, isComp := water.ParseComponent(an.Component)
-		if !found || !isComp {
+		f, err := parseForm(arg)
+		if err != nil {
 			return 0, false
 		}
-		a := r.Analysis
-		return a.Totals[c] * a.WaterPerLitre * an.FormMass / an.PerForm * 1000, a.Totals[c] > 0
+		return f.mgPerL(r.Analysis)
+	case "product":
+		fs, err := parseProduct(arg)
+		if err != nil {
+			return 0, false
+		}
+		return productValue(fs, r.Analysis)
 	}
 	return 0, false
 }
