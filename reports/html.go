@@ -116,11 +116,11 @@ type HTMLOptions struct {
 }
 
 // Check reports the first option out of range: SkinTemperature outside
-// 0–150 °C, MaxCycles outside 1–50, a negative MaxDose, an
+// saturation.MinTemperature–MaxTemperature (0–150 °C), MaxCycles outside 1–50, a negative MaxDose, an
 // unknown reagent or a strength outside 0–100 %. NaN is out of range.
 func (o HTMLOptions) Check() error {
-	if !(o.SkinTemperature >= 0 && o.SkinTemperature <= 150) {
-		return fmt.Errorf("skin temperature %g °C is outside 0–150 °C", o.SkinTemperature)
+	if !(o.SkinTemperature >= saturation.MinTemperature && o.SkinTemperature <= saturation.MaxTemperature) {
+		return fmt.Errorf("skin temperature %g °C is outside %d–%d °C", o.SkinTemperature, saturation.MinTemperature, saturation.MaxTemperature)
 	}
 	if o.MaxCycles != 0 && !(o.MaxCycles > 1 && o.MaxCycles <= 50) {
 		return fmt.Errorf("maximum cycles %g is outside 1–50", o.MaxCycles)

@@ -209,7 +209,7 @@ func (pc panelChart) option() (map[string]any, error) {
 				// The near-equilibrium band as a [from, to] pair, which
 				// go-echarts' mark-area helpers do not write.
 				s.MarkAreas = &opts.MarkAreas{
-					Data:          []any{[]any{map[string]any{"yAxis": -nearBand}, map[string]any{"yAxis": nearBand}}},
+					Data:          []any{[]any{map[string]any{"yAxis": -saturation.NearEquilibriumSI}, map[string]any{"yAxis": saturation.NearEquilibriumSI}}},
 					MarkAreaStyle: opts.MarkAreaStyle{ItemStyle: &opts.ItemStyle{Color: "rgba(86,180,233,0.16)"}},
 				}
 			}
@@ -225,10 +225,6 @@ func (pc panelChart) option() (map[string]any, error) {
 	}
 	return option, nil
 }
-
-// nearBand is the half-width of the near-equilibrium band, SI units (the
-// band of saturation.RiskBand).
-const nearBand = 0.2
 
 // markLines are the equilibrium and inhibitor-limit lines of a panel and
 // the vertical marks of the chart.
@@ -277,7 +273,7 @@ func (p panel) yRange() (lo, hi, step float64, err error) {
 		return 0, 0, 0, errNoValue
 	}
 	if p.SI {
-		lo, hi = math.Min(lo, -nearBand-0.1), math.Max(hi, nearBand+0.1)
+		lo, hi = math.Min(lo, -saturation.NearEquilibriumSI-0.1), math.Max(hi, saturation.NearEquilibriumSI+0.1)
 		if finite(p.Limit) {
 			lo, hi = math.Min(lo, p.Limit), math.Max(hi, p.Limit+0.1)
 		}

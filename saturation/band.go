@@ -31,10 +31,11 @@ var bandNames = [...]string{
 
 func (b Band) String() string { return bandNames[b] }
 
-// nearEquilibrium is the half-width of the near-equilibrium band in SI
+// NearEquilibriumSI is the half-width of the near-equilibrium band in SI
 // units: ±0.2, the "stable" band of the Langelier scale as commonly
-// tabulated (from memory; common practice).
-const nearEquilibrium = 0.2
+// tabulated (from memory; common practice). RiskBand and the report's
+// charts use it.
+const NearEquilibriumSI = 0.2
 
 // Reach is what the embedded tables say of one mineral: the highest SI a
 // typical inhibitor programme holds (the "inhibitor" profile of
@@ -94,12 +95,12 @@ func InhibitorReach(mineral string) (Reach, bool) {
 // "beyond inhibitor reach" above it, and plain "supersaturated" where the
 // profile gives no figure.
 func RiskBand(mineral string, si float64) Band {
-	if si < -nearEquilibrium {
+	if si < -NearEquilibriumSI {
 		return Undersaturated
 	}
 	r, ok := InhibitorReach(mineral)
 	limited := ok && !r.Slow && !math.IsNaN(r.MaxSI)
-	if si <= nearEquilibrium && !(limited && si > r.MaxSI) {
+	if si <= NearEquilibriumSI && !(limited && si > r.MaxSI) {
 		// Near equilibrium, unless the inhibitor limit is tighter than the
 		// band (amorphous silica: +0.18).
 		return NearEquilibrium

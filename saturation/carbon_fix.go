@@ -34,7 +34,7 @@ func (sp *Speciator) fixCarbon(s *solver, cs *carbonStep, a water.Analysis, opt 
 	cj := m.compMaster[water.C]
 	hasAlk := !math.IsNaN(a.Alkalinity)
 	if math.IsNaN(a.PH) {
-		if hasAlk && !cs.carbonKnown && cs.alk != 0 && opt.Carbonate != FixedPCO2 {
+		if hasAlk && !cs.carbonKnown && cs.alk != 0 && !opt.Carbonate.holdsPCO2() {
 			return fmt.Errorf("%w: pH is needed to find inorganic carbon from alkalinity (or report DIC)", ErrInconsistent)
 		}
 		return nil
@@ -42,8 +42,8 @@ func (sp *Speciator) fixCarbon(s *solver, cs *carbonStep, a water.Analysis, opt 
 	if a.PH < 0 || a.PH > 14 {
 		return fmt.Errorf("%w: pH %.4g is outside 0–14", ErrInconsistent, a.PH)
 	}
-	if math.IsNaN(a.PHTemperature) || a.PHTemperature < minTemperature || a.PHTemperature > maxTemperature {
-		return fmt.Errorf("%w: the pH was measured at %.4g °C, outside 0–%d °C", ErrInconsistent, a.PHTemperature, maxTemperature)
+	if math.IsNaN(a.PHTemperature) || a.PHTemperature < MinTemperature || a.PHTemperature > MaxTemperature {
+		return fmt.Errorf("%w: the pH was measured at %.4g °C, outside 0–%d °C", ErrInconsistent, a.PHTemperature, MaxTemperature)
 	}
 	if a.PHTemperature > warnTemperature {
 		cs.warnings = append(cs.warnings, fmt.Sprintf("the pH was measured at %.4g °C, above 100 °C: constants are extrapolated", a.PHTemperature))
@@ -161,7 +161,7 @@ func evaluationProblem(m *Model, cs *carbonStep, a water.Analysis, opt Options, 
 		}
 		p.hRow, p.lnaH = rowFixed, -opt.PH*math.Ln10
 		p.cRow, p.alk = rowAlk, cs.alk
-	case FixedPCO2:
+	case FixedPCO2, Air:
 		g, ok := m.gasIdx["CO2(g)"]
 		if !ok {
 			return p, errors.New("thermodynamic table has no CO2(g)")
@@ -170,7 +170,7 @@ func evaluationProblem(m *Model, cs *carbonStep, a water.Analysis, opt Options, 
 			return p, errors.New("alkalinity is needed for equilibrium with a CO2 partial pressure")
 		}
 		logP := opt.LogPCO2
-		if logP == 0 {
+		if opt.Carbonate == Air {
 			logP = LogPCO2Air
 		}
 		p.hRow, p.alk = rowAlk, cs.alk

@@ -12,7 +12,7 @@ import (
 // found at each cycle.
 type CarbonateRule struct {
 	Name string        // as given: closed, air, ph=7.8, natural, relation=A,B
-	Mode CarbonateMode // Closed, FixedPCO2 (air), FixedPHAlkalinity (relations)
+	Mode CarbonateMode // Closed, Air, FixedPHAlkalinity (relations)
 	// A and B, when set (A ≠ 0), give the pH from the total alkalinity as
 	// pH = A·log10(TA, mg/L as CaCO3) + B, alkalinity conserved and carbon
 	// following: a relation observed in the tower, or the "natural" one,
@@ -36,7 +36,7 @@ func ParseCarbonateRule(s string) (CarbonateRule, error) {
 	case s == "" || s == "closed":
 		r.Name, r.Mode = "closed", Closed
 	case s == "air":
-		r.Mode = FixedPCO2
+		r.Mode = Air
 	case s == "natural":
 		r.Mode, r.A, r.B = FixedPHAlkalinity, naturalA, naturalB
 	case strings.HasPrefix(s, "ph="):
@@ -76,7 +76,7 @@ func (c CarbonateRule) options(w water.Analysis, opt Options) (Options, error) {
 	o := opt
 	o.Carbonate = c.Mode
 	if c.A != 0 {
-		ta := w.Alkalinity * w.WaterPerLitre * 1000 * water.EquivalentMassCaCO3
+		ta := w.AlkalinityAsCaCO3()
 		if !(ta > 0) {
 			return o, fmt.Errorf("%w: the %s rule needs a positive alkalinity", ErrInconsistent, c.Name)
 		}

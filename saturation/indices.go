@@ -54,7 +54,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	ca := a.Totals[water.Ca] * wpl // mol/L
 	alk := a.Alkalinity * wpl      // eq/L
 	if !(alk > minIndexAlkalinity) {
-		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %.1f mg/L as CaCO3", minIndexAlkalinity*1000*water.EquivalentMassCaCO3)}
+		return ix, []string{fmt.Sprintf("the classic indices need an alkalinity above %.1f mg/L as CaCO3", water.AsCaCO3(minIndexAlkalinity))}
 	}
 	var warnings []string
 	ix.LarsonSkold, warnings = larsonSkold(a, alk)
@@ -71,7 +71,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 			"ionic strength %.3g mol/kg is beyond the Davies correction of the Langelier form (about %g): LSI, RSI and PSI are left out; the Stiff–Davis index and the calcite SI hold",
 			r.IonicStrength, maxLangelierIonicStrength))
 	}
-	taCaCO3 := alk * 1000 * water.EquivalentMassCaCO3
+	taCaCO3 := water.AsCaCO3(alk)
 	pHeq := 1.465*math.Log10(taCaCO3) + 4.54
 	ix.PSI = 2*ix.PHs - pHeq
 	tds := a.Quality().TDSCalculated
@@ -79,7 +79,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 		tds = a.MeasuredTDS
 	}
 	if r.IonicStrength <= maxLangelierIonicStrength {
-		ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, ca*1000*2*water.EquivalentMassCaCO3, taCaCO3)
+		ix.LSISimplified = r.PH - SimplifiedPHs(tds, r.Temperature, water.AsCaCO3(2*ca), taCaCO3)
 	}
 	// Stiff–Davis with this engine's γ.
 	gCa, gHCO3 := r.Gamma("Ca[2+]"), r.Gamma("HCO3[-]")
@@ -95,7 +95,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	if err != nil {
 		warnings = append(warnings, fmt.Sprintf("CCPP not computed: %v", err))
 	} else {
-		ix.CCPP = ccpp * wpl * 1000 * 2 * water.EquivalentMassCaCO3
+		ix.CCPP = water.AsCaCO3(2 * ccpp * wpl)
 	}
 	return ix, warnings
 }
@@ -134,7 +134,7 @@ func larsonSkold(a water.Analysis, alk float64) (float64, []string) {
 	if !(alk >= minLarsonSkoldAlkalinity) {
 		return math.NaN(), []string{fmt.Sprintf(
 			"Larson–Skold index not defined: alkalinity %.2g mg/L as CaCO3 is below %.0f mg/L as CaCO3, where the ratio would measure the titration's error rather than the water",
-			alk*1000*water.EquivalentMassCaCO3, minLarsonSkoldAlkalinity*1000*water.EquivalentMassCaCO3)}
+			water.AsCaCO3(alk), water.AsCaCO3(minLarsonSkoldAlkalinity))}
 	}
 	return (a.Totals[water.Cl] + 2*a.Totals[water.S]) * a.WaterPerLitre / alk, nil
 }

@@ -23,17 +23,23 @@ const (
 	// FixedPH holds pH at Options.PH, conserving carbon (alkalinity follows).
 	FixedPH
 	// FixedPCO2 holds the CO2 partial pressure at 10^Options.LogPCO2 atm and
-	// conserves alkalinity (carbon follows): a water open to a gas phase,
-	// such as a cooling tower open to air.
+	// conserves alkalinity (carbon follows): a water open to a gas phase.
+	// LogPCO2 is taken as given (0 is 1 atm); for air use Air.
 	FixedPCO2
 	// FixedPHAlkalinity holds pH at Options.PH and conserves alkalinity;
 	// inorganic carbon follows (CO2 exchanged with a gas phase): a tower
 	// whose pH is known from a relation with its alkalinity.
 	FixedPHAlkalinity
+	// Air is FixedPCO2 at the CO2 partial pressure of air, LogPCO2Air
+	// (Options.LogPCO2 is not used): a cooling tower open to air.
+	Air
 )
 
-// LogPCO2Air is log10 of the CO2 partial pressure of air, atm, used when
-// FixedPCO2 is asked for without a value: 10^−3.4 atm (about 400 ppm).
+// holdsPCO2 reports whether mode m holds a CO2 partial pressure.
+func (m CarbonateMode) holdsPCO2() bool { return m == FixedPCO2 || m == Air }
+
+// LogPCO2Air is log10 of the CO2 partial pressure of air, atm, the pressure
+// of the Air mode: 10^−3.4 atm (about 400 ppm).
 const LogPCO2Air = -3.4
 
 // Options configures a speciation. The zero value evaluates the sample at
@@ -46,8 +52,8 @@ type Options struct {
 	// sample's own temperature.
 	AtTemperature bool
 	Temperature   float64
-	// Carbonate is the carbonate mode; PH and LogPCO2 serve FixedPH and
-	// FixedPCO2 (LogPCO2 0 means air, LogPCO2Air).
+	// Carbonate is the carbonate mode; PH serves FixedPH and
+	// FixedPHAlkalinity, LogPCO2 serves FixedPCO2 only (Air uses LogPCO2Air).
 	Carbonate CarbonateMode
 	PH        float64
 	LogPCO2   float64
@@ -194,11 +200,16 @@ func Speciate(a water.Analysis, opt Options) (*Result, error) {
 }
 
 // Temperature limits of the tool, °C: data are fitted at 1 atm to 90–100 °C;
-// to 150 °C results carry an extrapolation warning; beyond it no result.
+// to MaxTemperature results carry an extrapolation warning; outside
+// MinTemperature–MaxTemperature no result. Every package checks its
+// temperature options against these two.
 const (
-	maxTemperature   = 150
+	MinTemperature = 0
+	MaxTemperature = 150
+)
+
+const (
 	warnTemperature  = 100
-	minTemperature   = 0
 	lowestPHAccepted = 0
 )
 
@@ -225,8 +236,8 @@ func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	if opt.AtTemperature {
 		t = opt.Temperature
 	}
-	if math.IsNaN(t) || t < minTemperature || t > maxTemperature {
-		return nil, fmt.Errorf("%s: temperature %.4g °C is outside 0–%d °C", a.Name, t, maxTemperature)
+	if math.IsNaN(t) || t < MinTemperature || t > MaxTemperature {
+		return nil, fmt.Errorf("%s: temperature %.4g °C is outside 0–%d °C", a.Name, t, MaxTemperature)
 	}
 	var warnings []string
 	if t > warnTemperature {
@@ -481,20 +492,22 @@ func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
 // ParseCarbonateMode parses how a water is evaluated: "closed" (carbon and
 // alkalinity conserved), "air" (equilibrium with air CO2), "pco2=LOG" (with
 // CO2 at 10^LOG atm), "charge" (pH from the charge balance) or "ph=VALUE"
-// (pH held, carbon conserved). It returns the options' carbonate fields.
+// (pH held, carbon conserved). It returns the options' carbonate fields:
+// the mode, the pH of FixedPH and the log pCO2 of FixedPCO2 (LogPCO2Air for
+// Air, for the record).
 func ParseCarbonateMode(s string) (mode CarbonateMode, pH, logPCO2 float64, err error) {
 	s = strings.ToLower(strings.TrimSpace(s))
 	switch {
 	case s == "" || s == "closed":
 		return Closed, 0, 0, nil
 	case s == "air":
-		return FixedPCO2, 0, LogPCO2Air, nil
+		return Air, 0, LogPCO2Air, nil
 	case s == "charge":
 		return ChargeBalance, 0, 0, nil
 	case strings.HasPrefix(s, "pco2="):
 		v, err := water.ParseNumber(strings.TrimPrefix(s, "pco2="))
-		if err != nil || v < -8 || v > 2 || v == 0 {
-			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want pco2=LOG10(atm), e.g. pco2=-3.4, from −8 to 2 (not 0)", s)
+		if err != nil || v < -8 || v > 2 {
+			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want pco2=LOG10(atm), e.g. pco2=-3.4, from −8 to 2", s)
 		}
 		return FixedPCO2, 0, v, nil
 	case strings.HasPrefix(s, "ph="):

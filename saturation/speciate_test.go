@@ -330,3 +330,36 @@ func TestErrors(t *testing.T) {
 		t.Errorf("pitzer asked for: model %v, error %v; want the Pitzer model and no error", r, err)
 	}
 }
+
+// TestCarbonateAirExplicit checks that equilibrium with air is a mode of
+// its own and that FixedPCO2 takes its LogPCO2 as given: log pCO2 0 is
+// 1 atm, not air (once a sentinel for air). Air's pressure is LogPCO2Air,
+// 10^−3.4 atm (about 400 ppm CO2; common practice).
+func TestCarbonateAirExplicit(t *testing.T) {
+	a := newWater("Ca(HCO3)2", 25, map[water.Component]float64{water.Ca: 1e-3})
+	a.Alkalinity = 2e-3
+	air, err := Speciate(a, Options{Carbonate: Air})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(air.LogPCO2-LogPCO2Air) > 1e-9 {
+		t.Errorf("Air: log pCO2 %g, want %g", air.LogPCO2, LogPCO2Air)
+	}
+	oneAtm, err := Speciate(a, Options{Carbonate: FixedPCO2, LogPCO2: 0})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(oneAtm.LogPCO2) > 1e-9 {
+		t.Errorf("FixedPCO2 with LogPCO2 0: log pCO2 %g, want 0 (1 atm)", oneAtm.LogPCO2)
+	}
+	if !(oneAtm.PH < air.PH-1) {
+		t.Errorf("1 atm CO2 gives pH %.2f, air pH %.2f: want the CO2-saturated water far more acid", oneAtm.PH, air.PH)
+	}
+	mode, _, logP, err := ParseCarbonateMode("air")
+	if err != nil || mode != Air || logP != LogPCO2Air {
+		t.Errorf("ParseCarbonateMode(air) = %v, %g, %v; want Air, %g", mode, logP, err, LogPCO2Air)
+	}
+	if mode, _, logP, err := ParseCarbonateMode("pco2=0"); err != nil || mode != FixedPCO2 || logP != 0 {
+		t.Errorf("ParseCarbonateMode(pco2=0) = %v, %g, %v; want FixedPCO2, 0", mode, logP, err)
+	}
+}

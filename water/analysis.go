@@ -290,5 +290,5 @@ func (a Analysis) MeqPerLitre(c Component) float64 {
 // AlkalinityAsCaCO3 returns the total alkalinity in mg/L as CaCO3; NaN
 // when it is not known.
 func (a Analysis) AlkalinityAsCaCO3() float64 {
-	return a.Alkalinity * a.WaterPerLitre * 1000 * EquivalentMassCaCO3
+	return AsCaCO3(a.Alkalinity * a.WaterPerLitre)
 }

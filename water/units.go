@@ -178,6 +178,11 @@ func (u Unit) ToKgPerLitre(v float64) float64 { return v * u.scale }
 // 100.086/2 from IUPAC 2021 abridged atomic weights.
 const EquivalentMassCaCO3 = 50.043
 
+// AsCaCO3 converts eq equivalents per litre (of alkalinity, hardness or
+// any charge) into the trade's mg/L as CaCO3: eq × 1000 × EquivalentMassCaCO3.
+// Every "as CaCO3" figure of the program goes through it.
+func AsCaCO3(eq float64) float64 { return eq * 1000 * EquivalentMassCaCO3 }
+
 // Amount converts a concentration v of analyte a in unit u into moles of
 // a's component (equivalents for alkalinity) per u.Basis. "as CaCO3" counts
 // equivalents (v / 50.043 g/eq) divided by the form's charge; "as X" with X a

@@ -57,8 +57,9 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	}
 	opt := saturation.Options{Activity: activity, Flow: c.flow}
 	if cmd.Flags().Changed("temperature") {
-		if !(c.temperature >= 0 && c.temperature <= 150) { // also rejects NaN
-			return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--temperature %g is outside 0–150 °C", c.temperature))
+		if !(c.temperature >= saturation.MinTemperature && c.temperature <= saturation.MaxTemperature) { // also rejects NaN
+			return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--temperature %g is outside %d–%d °C",
+				c.temperature, saturation.MinTemperature, saturation.MaxTemperature))
 		}
 		opt.AtTemperature, opt.Temperature = true, c.temperature
 	}
