@@ -2,8 +2,6 @@ package reports
 
 import (
 	"cmp"
-	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -209,22 +207,25 @@ func totals(a water.Analysis) map[string]float64 {
 	return out
 }
 
-// WriteAssessments writes assessments in format f.
+// WriteAssessments writes assessments in format f (JSON indented), with a
+// CSV column for every mineral computed in any of them.
 func WriteAssessments(w io.Writer, f Format, as []saturation.Assessment) error {
-	switch f {
-	case JSON:
-		doc := AssessJSON{Samples: make([]SampleJSON, 0, len(as)), Caution: Caution}
-		for _, a := range as {
-			doc.Samples = append(doc.Samples, Sample(a))
-		}
-		enc := json.NewEncoder(w)
-		enc.SetIndent("", "  ")
-		enc.SetEscapeHTML(false)
-		return enc.Encode(doc)
-	case CSV:
-		return writeAssessCSV(w, as)
-	}
-	return writeAssessText(w, as)
+	return NewAssessWriter(w, f, mineralOrder(as), WriteOptions{Indent: true}).WriteAll(as...)
+}
+
+// NewAssessWriter returns a writer of assessments, one at a time, in format
+// f. minerals are the "si_" columns of CSV, in order (a mineral a sample
+// lacks is a blank cell; give every mineral of the model, as
+// Table.Minerals lists them, to fix the columns before any sample is
+// computed).
+func NewAssessWriter(w io.Writer, f Format, minerals []string, opt WriteOptions) *SampleWriter[saturation.Assessment] {
+	return NewSampleWriter(w, f, Layout[saturation.Assessment]{
+		JSON:    func(a saturation.Assessment) any { return Sample(a) },
+		Header:  assessHeader(minerals),
+		CSV:     func(a saturation.Assessment) [][]string { return [][]string{assessRow(a, minerals)} },
+		Text:    writeAssessText,
+		Caution: Caution,
+	}, opt)
 }
 
 // mineralOrder returns the minerals computed in any assessment, in the
@@ -253,9 +254,8 @@ func formatOpt(p *float64, prec int) string {
 	return strconv.FormatFloat(*p, 'f', prec, 64)
 }
 
-func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
-	minerals := mineralOrder(as)
-	cw := csv.NewWriter(w)
+// assessHeader is the CSV header of assess.
+func assessHeader(minerals []string) []string {
 	header := []string{"name", "file", "line", "temperature_c", "ph", "ionic_strength", "activity_model",
 		"charge_balance_percent", "alkalinity_meq_per_kg",
 		"lsi", "lsi_simplified", "rsi", "psi", "stiff_davis", "larson_skold", "ccpp_mg_per_l"}
@@ -265,45 +265,39 @@ func writeAssessCSV(w io.Writer, as []saturation.Assessment) error {
 	for _, m := range minerals {
 		header = append(header, "si_"+m)
 	}
-	header = append(header, "error", "warnings")
-	if err := cw.Write(header); err != nil {
-		return err
+	return append(header, "error", "warnings")
+}
+
+// assessRow is the CSV row of one assessment.
+func assessRow(a saturation.Assessment, minerals []string) []string {
+	s := Sample(a)
+	row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
+		fmtG(s.IonicStrength), strOrBlank(s.ActivityModel), formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
+	ix := s.Indices
+	if ix == nil {
+		ix = &IndicesJSON{}
 	}
-	for _, a := range as {
-		s := Sample(a)
-		row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
-			fmtG(s.IonicStrength), strOrBlank(s.ActivityModel), formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
-		ix := s.Indices
-		if ix == nil {
-			ix = &IndicesJSON{}
-		}
-		row = append(row, fmtG(ix.LSI), fmtG(ix.LSISimplified), fmtG(ix.RSI), fmtG(ix.PSI), fmtG(ix.StiffDavis),
-			fmtG(ix.LarsonSkold), fmtG(ix.CCPP))
-		for _, c := range water.Components() {
-			if v, ok := s.Totals[c.String()]; ok {
-				row = append(row, strconv.FormatFloat(v, 'g', -1, 64))
-			} else {
-				row = append(row, "")
-			}
-		}
-		for _, m := range minerals {
-			if v, ok := s.SaturationIndex[m]; ok {
-				row = append(row, strconv.FormatFloat(v, 'f', 3, 64))
-			} else {
-				row = append(row, "")
-			}
-		}
-		errText := ""
-		if s.Error != nil {
-			errText = *s.Error
-		}
-		row = append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "))
-		if err := cw.Write(row); err != nil {
-			return err
+	row = append(row, fmtG(ix.LSI), fmtG(ix.LSISimplified), fmtG(ix.RSI), fmtG(ix.PSI), fmtG(ix.StiffDavis),
+		fmtG(ix.LarsonSkold), fmtG(ix.CCPP))
+	for _, c := range water.Components() {
+		if v, ok := s.Totals[c.String()]; ok {
+			row = append(row, strconv.FormatFloat(v, 'g', -1, 64))
+		} else {
+			row = append(row, "")
 		}
 	}
-	cw.Flush()
-	return cw.Error()
+	for _, m := range minerals {
+		if v, ok := s.SaturationIndex[m]; ok {
+			row = append(row, strconv.FormatFloat(v, 'f', 3, 64))
+		} else {
+			row = append(row, "")
+		}
+	}
+	errText := ""
+	if s.Error != nil {
+		errText = *s.Error
+	}
+	return append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "))
 }
 
 func strOrBlank(p *string) string {
@@ -320,40 +314,32 @@ func fmtG(p *float64) string {
 	return strconv.FormatFloat(*p, 'g', -1, 64)
 }
 
-func writeAssessText(w io.Writer, as []saturation.Assessment) error {
-	var b strings.Builder
-	for i, a := range as {
-		if i > 0 {
-			b.WriteString("\n")
-		}
-		where := ""
-		if a.File != "" {
-			where = fmt.Sprintf("  (%s, line %d)", a.File, a.Line)
-		}
-		fmt.Fprintf(&b, "%s%s\n", a.Name, where)
-		if a.BadInput {
-			fmt.Fprintf(&b, "  not computed: %v\n", a.Err)
-			continue
-		}
-		writeQualityText(&b, a.Quality)
-		if a.Result == nil {
-			fmt.Fprintf(&b, "  speciation failed: %v\n", a.Err)
-		} else {
-			writeResultText(&b, a.Result)
-			writeIndicesText(&b, a)
-		}
-		var warnings []string
-		warnings = append(warnings, a.Input.BelowDetection...)
-		warnings = append(warnings, a.Input.Warnings...)
-		if a.Result != nil {
-			warnings = append(warnings, a.Result.Warnings...)
-			warnings = append(warnings, a.Warnings...)
-		}
-		writeNotes(&b, warnings)
+// writeAssessText writes the text block of one assessment.
+func writeAssessText(b *strings.Builder, a saturation.Assessment) {
+	where := ""
+	if a.File != "" {
+		where = fmt.Sprintf("  (%s, line %d)", a.File, a.Line)
 	}
-	b.WriteString("\n" + wrap(Caution, 78) + "\n")
-	_, err := io.WriteString(w, b.String())
-	return err
+	fmt.Fprintf(b, "%s%s\n", a.Name, where)
+	if a.BadInput {
+		fmt.Fprintf(b, "  not computed: %v\n", a.Err)
+		return
+	}
+	writeQualityText(b, a.Quality)
+	if a.Result == nil {
+		fmt.Fprintf(b, "  speciation failed: %v\n", a.Err)
+	} else {
+		writeResultText(b, a.Result)
+		writeIndicesText(b, a)
+	}
+	var warnings []string
+	warnings = append(warnings, a.Input.BelowDetection...)
+	warnings = append(warnings, a.Input.Warnings...)
+	if a.Result != nil {
+		warnings = append(warnings, a.Result.Warnings...)
+		warnings = append(warnings, a.Warnings...)
+	}
+	writeNotes(b, warnings)
 }
 
 // writeNotes writes notes as an indented list under a "Notes" heading;

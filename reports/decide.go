@@ -1,8 +1,6 @@
 package reports
 
 import (
-	"encoding/csv"
-	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -12,14 +10,6 @@ import (
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
-
-// writeJSON writes v as indented JSON without HTML escaping.
-func writeJSON(w io.Writer, v any) error {
-	enc := json.NewEncoder(w)
-	enc.SetIndent("", "  ")
-	enc.SetEscapeHTML(false)
-	return enc.Encode(v)
-}
 
 // outcomeSample turns a water after a treatment into the assess JSON
 // object.
@@ -52,83 +42,79 @@ type DoseOutcome struct {
 	Err    error
 }
 
-// WriteDoses writes dose answers in format f.
+// WriteDoses writes dose answers in format f (JSON indented).
 func WriteDoses(w io.Writer, f Format, ds []DoseOutcome) error {
-	var js []DoseJSON
-	for _, d := range ds {
-		j := DoseJSON{Name: d.Name, Warnings: []string{}}
-		if d.Err != nil {
-			msg := d.Err.Error()
-			j.Error = &msg
-			js = append(js, j)
-			continue
-		}
-		r := d.Result
-		j.Reagent, j.StrengthPercent, j.Target = r.Reagent.Name, r.Strength, r.Target.String()
-		j.DoseMgPerL, j.Reached = sig(r.Dose, 5), r.Reached
+	return NewDoseWriter(w, f, WriteOptions{Indent: true}).WriteAll(ds...)
+}
+
+// NewDoseWriter returns a writer of dose answers, one at a time, in format f.
+func NewDoseWriter(w io.Writer, f Format, opt WriteOptions) *SampleWriter[DoseOutcome] {
+	return NewSampleWriter(w, f, Layout[DoseOutcome]{
+		JSON: func(d DoseOutcome) any { return doseJSON(d) },
+		Header: []string{"name", "reagent", "strength_percent", "target", "dose_mg_per_l", "dose_kg_per_day", "reached",
+			"ph_before", "ph_after", "lsi_before", "lsi_after", "error", "warnings"},
+		CSV:     func(d DoseOutcome) [][]string { return [][]string{doseRow(doseJSON(d))} },
+		Text:    writeDoseText,
+		Caution: DoseCaution,
+	}, opt)
+}
+
+// doseJSON is the JSON object of one dose answer.
+func doseJSON(d DoseOutcome) DoseJSON {
+	j := DoseJSON{Name: d.Name, Warnings: []string{}}
+	if d.Err != nil {
+		msg := d.Err.Error()
+		j.Error = &msg
+		return j
+	}
+	r := d.Result
+	j.Reagent, j.StrengthPercent, j.Target = r.Reagent.Name, r.Strength, r.Target.String()
+	j.DoseMgPerL, j.Reached = sig(r.Dose, 5), r.Reached
+	if d.Flow > 0 {
+		j.DoseKgPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow), func(x float64) float64 { return sig(x, 4) })
+	}
+	before, after := outcomeSample(d.Name, r.Before), outcomeSample(d.Name, r.After)
+	j.Before, j.After = &before, &after
+	j.Warnings = append(j.Warnings, r.Warnings...)
+	return j
+}
+
+// doseRow is the CSV row of one dose answer.
+func doseRow(j DoseJSON) []string {
+	row := []string{j.Name, j.Reagent, fmtF(j.StrengthPercent), j.Target, fmtF(j.DoseMgPerL), fmtG(j.DoseKgPerDay),
+		strconv.FormatBool(j.Reached)}
+	if j.Before != nil {
+		row = append(row, fmtG(j.Before.PH), fmtG(j.After.PH), fmtG(lsiOf(j.Before)), fmtG(lsiOf(j.After)))
+	} else {
+		row = append(row, "", "", "", "")
+	}
+	return append(row, errOf(j.Error), strings.Join(j.Warnings, "; "))
+}
+
+// writeDoseText writes the text block of one dose answer.
+func writeDoseText(b *strings.Builder, d DoseOutcome) {
+	if d.Err != nil {
+		fmt.Fprintf(b, "%s: not computed: %v\n", d.Name, d.Err)
+		return
+	}
+	r := d.Result
+	if r.Reached {
+		fmt.Fprintf(b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, targetWords(r.Target), r.Target.Value)
 		if d.Flow > 0 {
-			j.DoseKgPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow), func(x float64) float64 { return sig(x, 4) })
+			fmt.Fprintf(b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
 		}
-		before, after := outcomeSample(d.Name, r.Before), outcomeSample(d.Name, r.After)
-		j.Before, j.After = &before, &after
-		j.Warnings = append(j.Warnings, r.Warnings...)
-		js = append(js, j)
+		b.WriteString(".\n")
+	} else if len(r.Warnings) > 0 {
+		fmt.Fprintf(b, "%s: %s.\n", d.Name, r.Warnings[0])
+	} else {
+		fmt.Fprintf(b, "%s: %s does not reach %s.\n", d.Name, r.Reagent.Name, r.Target)
 	}
-	switch f {
-	case JSON:
-		return writeJSON(w, struct {
-			Samples []DoseJSON `json:"samples"`
-			Caution string     `json:"caution"`
-		}{js, DoseCaution})
-	case CSV:
-		cw := csv.NewWriter(w)
-		cw.Write([]string{"name", "reagent", "strength_percent", "target", "dose_mg_per_l", "dose_kg_per_day", "reached",
-			"ph_before", "ph_after", "lsi_before", "lsi_after", "error", "warnings"})
-		for _, j := range js {
-			row := []string{j.Name, j.Reagent, fmtF(j.StrengthPercent), j.Target, fmtF(j.DoseMgPerL), fmtG(j.DoseKgPerDay),
-				strconv.FormatBool(j.Reached)}
-			if j.Before != nil {
-				row = append(row, fmtG(j.Before.PH), fmtG(j.After.PH), fmtG(lsiOf(j.Before)), fmtG(lsiOf(j.After)))
-			} else {
-				row = append(row, "", "", "", "")
-			}
-			row = append(row, errOf(j.Error), strings.Join(j.Warnings, "; "))
-			cw.Write(row)
-		}
-		cw.Flush()
-		return cw.Error()
+	writeOutcomeChange(b, r.Before, r.After)
+	notes := r.Warnings
+	if !r.Reached && len(notes) > 0 {
+		notes = notes[1:] // the first said it above
 	}
-	var b strings.Builder
-	for i, d := range ds {
-		if i > 0 {
-			b.WriteString("\n")
-		}
-		if d.Err != nil {
-			fmt.Fprintf(&b, "%s: not computed: %v\n", d.Name, d.Err)
-			continue
-		}
-		r := d.Result
-		if r.Reached {
-			fmt.Fprintf(&b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, targetWords(r.Target), r.Target.Value)
-			if d.Flow > 0 {
-				fmt.Fprintf(&b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
-			}
-			b.WriteString(".\n")
-		} else if len(r.Warnings) > 0 {
-			fmt.Fprintf(&b, "%s: %s.\n", d.Name, r.Warnings[0])
-		} else {
-			fmt.Fprintf(&b, "%s: %s does not reach %s.\n", d.Name, r.Reagent.Name, r.Target)
-		}
-		writeOutcomeChange(&b, r.Before, r.After)
-		notes := r.Warnings
-		if !r.Reached && len(notes) > 0 {
-			notes = notes[1:] // the first said it above
-		}
-		writeNotes(&b, notes)
-	}
-	b.WriteString("\n" + wrap(DoseCaution, 78) + "\n")
-	_, err := io.WriteString(w, b.String())
-	return err
+	writeNotes(b, notes)
 }
 
 // targetWords names a target's quantity for a sentence: "pH", "LSI",
@@ -237,157 +223,177 @@ type CyclesOutcome struct {
 	Err         error
 }
 
-// WriteCycles writes cycles answers in format f.
+// WriteCycles writes cycles answers in format f (JSON indented).
 func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
-	var js []CyclesJSON
-	for _, c := range cs {
-		j := CyclesJSON{Name: c.Name, Carbonate: c.Carbonate, Warnings: []string{}, Points: []CyclesPointJSON{}}
-		if c.Err != nil {
-			msg := c.Err.Error()
-			j.Error = &msg
-			js = append(js, j)
-			continue
-		}
-		r := c.Result
-		j.Profile, j.MaxCycles, j.Limiting, j.Exceeded = r.Profile.Name, dec(r.MaxCycles, 2), r.Limiting, r.Exceeded
-		if c.Evaporation > 0 && r.MaxCycles > 1 {
-			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
-			j.MakeupM3PerH = optional(m, func(x float64) float64 { return sig(x, 4) })
-			j.BlowdownM3PerH = optional(bd, func(x float64) float64 { return sig(x, 4) })
-		}
-		j.LimitsAtMaximum = map[string]string{}
-		for _, l := range r.Profile.Limits {
-			j.LimitsAtMaximum[l.Quantity] = fmt.Sprintf("≤ %g (%s)", l.Max, l.Source)
-		}
-		for _, p := range r.Points {
-			pj := CyclesPointJSON{Cycles: dec(p.Cycles, 3)}
-			if p.Err != nil {
-				msg := p.Err.Error()
-				pj.Error = &msg
+	return NewCyclesWriter(w, f, WriteOptions{Indent: true}).WriteAll(cs...)
+}
+
+// cyclesMinerals are the minerals of the CSV output of cycles.
+var cyclesMinerals = []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"}
+
+// NewCyclesWriter returns a writer of cycles answers, one at a time, in
+// format f.
+func NewCyclesWriter(w io.Writer, f Format, opt WriteOptions) *SampleWriter[CyclesOutcome] {
+	header := []string{"name", "profile", "carbonate", "max_cycles", "limiting", "makeup_m3_per_h", "blowdown_m3_per_h",
+		"cycles", "acid_mg_per_l", "ph", "lsi"}
+	for _, m := range cyclesMinerals {
+		header = append(header, "si_"+m)
+	}
+	return NewSampleWriter(w, f, Layout[CyclesOutcome]{
+		JSON:    func(c CyclesOutcome) any { return cyclesJSON(c) },
+		Header:  append(header, "error"),
+		CSV:     func(c CyclesOutcome) [][]string { return cyclesRows(cyclesJSON(c)) },
+		Text:    writeCyclesText,
+		Caution: Caution,
+	}, opt)
+}
+
+// cyclesJSON is the JSON object of one cycles answer.
+func cyclesJSON(c CyclesOutcome) CyclesJSON {
+	j := CyclesJSON{Name: c.Name, Carbonate: c.Carbonate, Warnings: []string{}, Points: []CyclesPointJSON{}}
+	if c.Err != nil {
+		msg := c.Err.Error()
+		j.Error = &msg
+		return j
+	}
+	r := c.Result
+	j.Profile, j.MaxCycles, j.Limiting, j.Exceeded = r.Profile.Name, dec(r.MaxCycles, 2), r.Limiting, r.Exceeded
+	if c.Evaporation > 0 && r.MaxCycles > 1 {
+		m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
+		j.MakeupM3PerH = optional(m, func(x float64) float64 { return sig(x, 4) })
+		j.BlowdownM3PerH = optional(bd, func(x float64) float64 { return sig(x, 4) })
+	}
+	j.LimitsAtMaximum = map[string]string{}
+	for _, l := range r.Profile.Limits {
+		j.LimitsAtMaximum[l.Quantity] = fmt.Sprintf("≤ %g (%s)", l.Max, l.Source)
+	}
+	for _, p := range r.Points {
+		j.Points = append(j.Points, cyclesPointJSON(p, r.Rule.SetPoint > 0))
+	}
+	j.Warnings = append(j.Warnings, r.Warnings...)
+	return j
+}
+
+// cyclesPointJSON is the water at one point of the cycles table; acid says
+// whether an acid holds a pH set point.
+func cyclesPointJSON(p saturation.CyclePoint, acid bool) CyclesPointJSON {
+	pj := CyclesPointJSON{Cycles: dec(p.Cycles, 3)}
+	if p.Err != nil {
+		msg := p.Err.Error()
+		pj.Error = &msg
+		return pj
+	}
+	pj.ActivityModel = p.Result.Activity.String()
+	if acid {
+		pj.AcidMgPerL = optional(p.Dose, func(x float64) float64 { return sig(x, 4) })
+	}
+	pj.Warnings = p.Result.Warnings
+	pj.PH = optional(p.Result.PH, func(x float64) float64 { return dec(x, 3) })
+	pj.IonicStrength = optional(p.Result.IonicStrength, func(x float64) float64 { return sig(x, 4) })
+	pj.LSI = optional(p.Indices.LSI, func(x float64) float64 { return dec(x, 2) })
+	pj.SaturationIndex = map[string]float64{}
+	for _, m := range p.Result.Minerals {
+		pj.SaturationIndex[m.Name] = dec(m.SI, 3)
+	}
+	return pj
+}
+
+// cyclesRows are the CSV rows of one cycles answer: one per point, or one
+// carrying the error.
+func cyclesRows(j CyclesJSON) [][]string {
+	if j.Error != nil {
+		return [][]string{{j.Name, j.Profile, j.Carbonate, "", "", "", "", "", "", "", "", "", "", "", "", "", *j.Error}}
+	}
+	var rows [][]string
+	for _, p := range j.Points {
+		row := []string{j.Name, j.Profile, j.Carbonate, fmtF(j.MaxCycles), j.Limiting, fmtG(j.MakeupM3PerH), fmtG(j.BlowdownM3PerH),
+			fmtF(p.Cycles), fmtG(p.AcidMgPerL), fmtG(p.PH), fmtG(p.LSI)}
+		for _, m := range cyclesMinerals {
+			if v, ok := p.SaturationIndex[m]; ok {
+				row = append(row, fmtF(v))
 			} else {
-				pj.ActivityModel = p.Result.Activity.String()
-				if r.Rule.SetPoint > 0 {
-					pj.AcidMgPerL = optional(p.Dose, func(x float64) float64 { return sig(x, 4) })
-				}
-				pj.Warnings = p.Result.Warnings
-				pj.PH = optional(p.Result.PH, func(x float64) float64 { return dec(x, 3) })
-				pj.IonicStrength = optional(p.Result.IonicStrength, func(x float64) float64 { return sig(x, 4) })
-				pj.LSI = optional(p.Indices.LSI, func(x float64) float64 { return dec(x, 2) })
-				pj.SaturationIndex = map[string]float64{}
-				for _, m := range p.Result.Minerals {
-					pj.SaturationIndex[m.Name] = dec(m.SI, 3)
-				}
+				row = append(row, "")
 			}
-			j.Points = append(j.Points, pj)
 		}
-		j.Warnings = append(j.Warnings, r.Warnings...)
-		js = append(js, j)
+		rows = append(rows, append(row, errOf(p.Error)))
 	}
-	switch f {
-	case JSON:
-		return writeJSON(w, struct {
-			Samples []CyclesJSON `json:"samples"`
-			Caution string       `json:"caution"`
-		}{js, Caution})
-	case CSV:
-		cw := csv.NewWriter(w)
-		cw.Write([]string{"name", "profile", "carbonate", "max_cycles", "limiting", "makeup_m3_per_h", "blowdown_m3_per_h",
-			"cycles", "acid_mg_per_l", "ph", "lsi", "si_calcite", "si_gypsum", "si_barite", "si_celestite", "si_silica_amorphous", "error"})
-		for _, j := range js {
-			if j.Error != nil {
-				cw.Write([]string{j.Name, j.Profile, j.Carbonate, "", "", "", "", "", "", "", "", "", "", "", "", "", *j.Error})
-				continue
-			}
-			for _, p := range j.Points {
-				row := []string{j.Name, j.Profile, j.Carbonate, fmtF(j.MaxCycles), j.Limiting, fmtG(j.MakeupM3PerH), fmtG(j.BlowdownM3PerH),
-					fmtF(p.Cycles), fmtG(p.AcidMgPerL), fmtG(p.PH), fmtG(p.LSI)}
-				for _, m := range []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"} {
-					if v, ok := p.SaturationIndex[m]; ok {
-						row = append(row, fmtF(v))
-					} else {
-						row = append(row, "")
-					}
-				}
-				row = append(row, errOf(p.Error))
-				cw.Write(row)
-			}
-		}
-		cw.Flush()
-		return cw.Error()
+	return rows
+}
+
+// writeCyclesText writes the text block of one cycles answer: the answer
+// in a sentence, the table of points and the notes.
+func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
+	if c.Err != nil {
+		fmt.Fprintf(b, "%s: not computed: %v\n", c.Name, c.Err)
+		return
 	}
-	var b strings.Builder
-	for i, c := range cs {
-		if i > 0 {
-			b.WriteString("\n")
+	r := c.Result
+	switch {
+	case len(r.Exceeded) > 0:
+		fmt.Fprintf(b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",
+			c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), c.Carbonate)
+	case r.Limiting == "":
+		fmt.Fprintf(b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
+	default:
+		l, _ := r.Profile.Lookup(r.Limiting)
+		fmt.Fprintf(b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there.\n",
+			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, cyclesTemperature(r), r.Limiting, l.Max)
+	}
+	if c.Evaporation > 0 && r.MaxCycles > 1 {
+		m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
+		fmt.Fprintf(b, "  At %.3g m³/h evaporation: make-up %.3g m³/h, blowdown %.3g m³/h (drift neglected).\n", c.Evaporation, m, bd)
+	}
+	writeCyclesTable(b, r)
+	seen := map[string]bool{}
+	notes := append([]string(nil), r.Warnings...)
+	for _, p := range r.Points {
+		if p.Result != nil {
+			notes = append(notes, p.Result.Warnings...)
 		}
-		if c.Err != nil {
-			fmt.Fprintf(&b, "%s: not computed: %v\n", c.Name, c.Err)
+	}
+	for _, wn := range notes {
+		if !seen[wn] {
+			seen[wn] = true
+			fmt.Fprintf(b, "  - %s\n", wn)
+		}
+	}
+}
+
+// writeCyclesTable writes the text table of a cycles answer: pH, LSI, the
+// acid dose under a set point and the SI of each mineral the profile
+// limits, at every point.
+func writeCyclesTable(b *strings.Builder, r *saturation.CyclesResult) {
+	acid := r.Rule.SetPoint > 0
+	fmt.Fprintf(b, "  %7s  %6s  %6s", "cycles", "pH", "LSI")
+	if acid {
+		fmt.Fprintf(b, "  %9s", "acid mg/L")
+	}
+	var names []string
+	for _, l := range r.Profile.Limits {
+		if strings.HasPrefix(l.Quantity, "si:") {
+			names = append(names, strings.TrimPrefix(l.Quantity, "si:"))
+		}
+	}
+	for _, n := range names {
+		fmt.Fprintf(b, "  %*s", max(8, len(n)), n)
+	}
+	b.WriteString("\n")
+	for _, p := range r.Points {
+		if p.Err != nil {
+			fmt.Fprintf(b, "  %7.2f  %v\n", p.Cycles, p.Err)
 			continue
 		}
-		r := c.Result
-		switch {
-		case len(r.Exceeded) > 0:
-			fmt.Fprintf(&b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",
-				c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), c.Carbonate)
-		case r.Limiting == "":
-			fmt.Fprintf(&b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
-		default:
-			l, _ := r.Profile.Lookup(r.Limiting)
-			fmt.Fprintf(&b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there.\n",
-				c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, cyclesTemperature(r), r.Limiting, l.Max)
-		}
-		if c.Evaporation > 0 && r.MaxCycles > 1 {
-			m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
-			fmt.Fprintf(&b, "  At %.3g m³/h evaporation: make-up %.3g m³/h, blowdown %.3g m³/h (drift neglected).\n", c.Evaporation, m, bd)
-		}
-		acid := r.Rule.SetPoint > 0
-		fmt.Fprintf(&b, "  %7s  %6s  %6s", "cycles", "pH", "LSI")
+		fmt.Fprintf(b, "  %7.2f  %6.2f  %6s", p.Cycles, p.Result.PH, numOrBlank(p.Indices.LSI, 2))
 		if acid {
-			fmt.Fprintf(&b, "  %9s", "acid mg/L")
-		}
-		var names []string
-		for _, l := range r.Profile.Limits {
-			if strings.HasPrefix(l.Quantity, "si:") {
-				names = append(names, strings.TrimPrefix(l.Quantity, "si:"))
-			}
+			fmt.Fprintf(b, "  %9.4g", p.Dose)
 		}
 		for _, n := range names {
-			fmt.Fprintf(&b, "  %*s", max(8, len(n)), n)
+			if v, ok := p.Result.SI(n); ok {
+				fmt.Fprintf(b, "  %+*.2f", max(8, len(n)), v)
+			} else {
+				fmt.Fprintf(b, "  %*s", max(8, len(n)), "–")
+			}
 		}
 		b.WriteString("\n")
-		for _, p := range r.Points {
-			if p.Err != nil {
-				fmt.Fprintf(&b, "  %7.2f  %v\n", p.Cycles, p.Err)
-				continue
-			}
-			fmt.Fprintf(&b, "  %7.2f  %6.2f  %6s", p.Cycles, p.Result.PH, numOrBlank(p.Indices.LSI, 2))
-			if acid {
-				fmt.Fprintf(&b, "  %9.4g", p.Dose)
-			}
-			for _, n := range names {
-				if v, ok := p.Result.SI(n); ok {
-					fmt.Fprintf(&b, "  %+*.2f", max(8, len(n)), v)
-				} else {
-					fmt.Fprintf(&b, "  %*s", max(8, len(n)), "–")
-				}
-			}
-			b.WriteString("\n")
-		}
-		seen := map[string]bool{}
-		notes := append([]string(nil), r.Warnings...)
-		for _, p := range r.Points {
-			if p.Result != nil {
-				notes = append(notes, p.Result.Warnings...)
-			}
-		}
-		for _, wn := range notes {
-			if !seen[wn] {
-				seen[wn] = true
-				fmt.Fprintf(&b, "  - %s\n", wn)
-			}
-		}
 	}
-	b.WriteString("\n" + wrap(Caution, 78) + "\n")
-	_, err := io.WriteString(w, b.String())
-	return err
 }

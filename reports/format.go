@@ -1,9 +1,14 @@
 package reports
 
 import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
 	"fmt"
+	"io"
 	"math"
 	"strconv"
+	"strings"
 )
 
 // Format is an output format.
@@ -62,4 +67,169 @@ func optional(x float64, round func(float64) float64) *float64 {
 	}
 	v := round(x)
 	return &v
+}
+
+// Layout says how one command writes one sample in each format; a
+// SampleWriter runs it for every sample.
+type Layout[T any] struct {
+	// JSON returns the JSON object of a sample, an element of the
+	// document's "samples" array.
+	JSON func(T) any
+	// Header is the CSV header; CSV returns the rows of a sample (none, one
+	// or several).
+	Header []string
+	CSV    func(T) [][]string
+	// Text writes the text block of a sample.
+	Text func(*strings.Builder, T)
+	// Caution ends every document: the "caution" key of JSON, the last
+	// paragraph of text.
+	Caution string
+}
+
+// WriteOptions configures a SampleWriter.
+type WriteOptions struct {
+	// Indent writes JSON indented by two spaces, one key per line; the
+	// default is compact JSON.
+	Indent bool
+}
+
+// SampleWriter writes the samples of one command one at a time, as each is
+// computed, so that output begins with the first sample and memory does
+// not grow with their number: JSON as one document
+// {"samples":[…],"caution":"…"} whose array is streamed, CSV as one header
+// and the rows of each sample, text as one block per sample (blank lines
+// between) and the caution at the end. Close ends the document.
+type SampleWriter[T any] struct {
+	w      io.Writer
+	f      Format
+	layout Layout[T]
+	opt    WriteOptions
+	n      int
+	cw     *csv.Writer
+	buf    bytes.Buffer
+	enc    *json.Encoder
+	err    error
+}
+
+// NewSampleWriter returns a writer of samples laid out by layout in format
+// f to w.
+func NewSampleWriter[T any](w io.Writer, f Format, layout Layout[T], opt WriteOptions) *SampleWriter[T] {
+	sw := &SampleWriter[T]{w: w, f: f, layout: layout, opt: opt}
+	switch f {
+	case JSON:
+		sw.enc = json.NewEncoder(&sw.buf)
+		sw.enc.SetEscapeHTML(false)
+		if opt.Indent {
+			// Elements sit two levels deep in the document.
+			sw.enc.SetIndent("    ", "  ")
+		}
+	case CSV:
+		sw.cw = csv.NewWriter(w)
+	}
+	return sw
+}
+
+// Write writes one sample; after the first error every call returns it.
+func (sw *SampleWriter[T]) Write(v T) error {
+	if sw.err != nil {
+		return sw.err
+	}
+	first := sw.n == 0
+	sw.n++
+	sw.buf.Reset()
+	switch sw.f {
+	case JSON:
+		sw.buf.WriteString(sw.jsonLead(first))
+		if err := sw.enc.Encode(sw.layout.JSON(v)); err != nil {
+			sw.err = err
+			return err
+		}
+		sw.buf.Truncate(sw.buf.Len() - 1) // Encode's newline
+	case CSV:
+		if first {
+			sw.cw.Write(sw.layout.Header)
+		}
+		for _, row := range sw.layout.CSV(v) {
+			sw.cw.Write(row)
+		}
+		sw.cw.Flush()
+		sw.err = sw.cw.Error()
+		return sw.err
+	default:
+		var b strings.Builder
+		if !first {
+			b.WriteString("\n")
+		}
+		sw.layout.Text(&b, v)
+		sw.buf.WriteString(b.String())
+	}
+	_, sw.err = sw.w.Write(sw.buf.Bytes())
+	return sw.err
+}
+
+// jsonLead is what goes before a sample in the JSON document: the start of
+// the document before the first, a comma before the others.
+func (sw *SampleWriter[T]) jsonLead(first bool) string {
+	switch {
+	case first && sw.opt.Indent:
+		return "{\n  \"samples\": [\n    "
+	case first:
+		return `{"samples":[`
+	case sw.opt.Indent:
+		return ",\n    "
+	}
+	return ","
+}
+
+// Close ends the document: the end of the JSON array and the caution, the
+// CSV header when there was no sample, the caution of text.
+func (sw *SampleWriter[T]) Close() error {
+	if sw.err != nil {
+		return sw.err
+	}
+	var tail string
+	switch sw.f {
+	case JSON:
+		caution := jsonString(sw.layout.Caution)
+		switch {
+		case sw.n == 0 && sw.opt.Indent:
+			tail = "{\n  \"samples\": [],\n  \"caution\": " + string(caution) + "\n}\n"
+		case sw.n == 0:
+			tail = `{"samples":[],"caution":` + string(caution) + "}\n"
+		case sw.opt.Indent:
+			tail = "\n  ],\n  \"caution\": " + string(caution) + "\n}\n"
+		default:
+			tail = `],"caution":` + string(caution) + "}\n"
+		}
+	case CSV:
+		if sw.n == 0 {
+			sw.cw.Write(sw.layout.Header)
+		}
+		sw.cw.Flush()
+		sw.err = sw.cw.Error()
+		return sw.err
+	default:
+		tail = "\n" + wrap(sw.layout.Caution, 78) + "\n"
+	}
+	_, sw.err = io.WriteString(sw.w, tail)
+	return sw.err
+}
+
+// jsonString is s as a JSON string, without HTML escaping.
+func jsonString(s string) string {
+	var b strings.Builder
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	enc.Encode(s) // a string always encodes
+	return strings.TrimSuffix(b.String(), "\n")
+}
+
+// WriteAll writes the samples vs and ends the document.
+func (sw *SampleWriter[T]) WriteAll(vs ...T) error {
+	for _, v := range vs {
+		if err := sw.Write(v); err != nil {
+			return err
+		}
+	}
+	return sw.Close()
 }

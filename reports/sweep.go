@@ -1,7 +1,6 @@
 package reports
 
 import (
-	"encoding/csv"
 	"fmt"
 	"io"
 	"maps"
@@ -43,157 +42,162 @@ func variableKey(v saturation.Variable) string {
 // sweepMinerals are the minerals shown in the text table of a sweep.
 var sweepMinerals = []string{"calcite", "gypsum", "anhydrite", "barite", "celestite", "fluorite", "silica_amorphous"}
 
-// WriteSweeps writes sweeps in format f.
+// WriteSweeps writes sweeps in format f (JSON indented).
 func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
-	var js []SweepJSON
-	for _, s := range ss {
-		j := SweepJSON{Name: s.Name, Vary: []string{s.X.Var.String()}, Points: []map[string]any{}}
+	return NewSweepWriter(w, f, WriteOptions{Indent: true}).WriteAll(ss...)
+}
+
+// NewSweepWriter returns a writer of sweeps, one sample at a time, in
+// format f.
+func NewSweepWriter(w io.Writer, f Format, opt WriteOptions) *SampleWriter[SweepOutcome] {
+	header := []string{"name", "x_variable", "x", "y_variable", "y", "ph", "ionic_strength", "lsi", "rsi"}
+	for _, m := range sweepMinerals {
+		header = append(header, "si_"+m)
+	}
+	header = append(header, "error")
+	return NewSampleWriter(w, f, Layout[SweepOutcome]{
+		JSON:    func(s SweepOutcome) any { return sweepJSON(s) },
+		Header:  header,
+		CSV:     func(s SweepOutcome) [][]string { return sweepRows(s, len(header)) },
+		Text:    writeSweepText,
+		Caution: Caution,
+	}, opt)
+}
+
+// sweepJSON is the JSON object of one sample's sweep.
+func sweepJSON(s SweepOutcome) SweepJSON {
+	j := SweepJSON{Name: s.Name, Vary: []string{s.X.Var.String()}, Points: []map[string]any{}}
+	if s.Y != nil {
+		j.Vary = append(j.Vary, s.Y.Var.String())
+	}
+	if s.Err != nil {
+		msg := s.Err.Error()
+		j.Error = &msg
+		return j
+	}
+	for _, p := range s.Points {
+		pt := map[string]any{variableKey(s.X.Var): sig(p.X, 6)}
 		if s.Y != nil {
-			j.Vary = append(j.Vary, s.Y.Var.String())
+			pt[variableKey(s.Y.Var)] = sig(p.Y, 6)
 		}
-		if s.Err != nil {
-			msg := s.Err.Error()
-			j.Error = &msg
-			js = append(js, j)
+		if p.Err != nil {
+			pt["error"] = p.Err.Error()
+		} else {
+			pt["activity_model"] = p.Result.Activity.String()
+			if len(p.Result.Warnings) > 0 {
+				pt["warnings"] = p.Result.Warnings
+			}
+			pt["ph"] = dec(p.Result.PH, 3)
+			pt["ionic_strength"] = sig(p.Result.IonicStrength, 4)
+			si := map[string]float64{}
+			for _, m := range p.Result.Minerals {
+				si[m.Name] = dec(m.SI, 3)
+			}
+			pt["saturation_index"] = si
+			ix := p.Indices
+			pt["indices"] = indicesJSON(&ix)
+		}
+		j.Points = append(j.Points, pt)
+	}
+	return j
+}
+
+// sweepRows are the CSV rows of one sample's sweep, width cells each: one
+// per point, or one carrying the error.
+func sweepRows(s SweepOutcome, width int) [][]string {
+	if s.Err != nil {
+		return [][]string{append([]string{s.Name, s.X.Var.String()}, append(make([]string, width-3), s.Err.Error())...)}
+	}
+	var rows [][]string
+	for _, p := range s.Points {
+		yv, yn := "", ""
+		if s.Y != nil {
+			yv, yn = fmtF(sig(p.Y, 6)), s.Y.Var.String()
+		}
+		row := []string{s.Name, s.X.Var.String(), fmtF(sig(p.X, 6)), yn, yv}
+		if p.Err != nil {
+			row = append(row, make([]string, width-len(row)-1)...)
+			rows = append(rows, append(row, p.Err.Error()))
 			continue
 		}
-		for _, p := range s.Points {
-			pt := map[string]any{variableKey(s.X.Var): sig(p.X, 6)}
-			if s.Y != nil {
-				pt[variableKey(s.Y.Var)] = sig(p.Y, 6)
-			}
-			if p.Err != nil {
-				pt["error"] = p.Err.Error()
+		ix := p.Indices
+		row = append(row, fmtF(dec(p.Result.PH, 3)), fmtF(sig(p.Result.IonicStrength, 4)), numOrBlank(ix.LSI, 2), numOrBlank(ix.RSI, 2))
+		for _, m := range sweepMinerals {
+			if v, ok := p.Result.SI(m); ok {
+				row = append(row, fmtF(dec(v, 3)))
 			} else {
-				pt["activity_model"] = p.Result.Activity.String()
-				if len(p.Result.Warnings) > 0 {
-					pt["warnings"] = p.Result.Warnings
-				}
-				pt["ph"] = dec(p.Result.PH, 3)
-				pt["ionic_strength"] = sig(p.Result.IonicStrength, 4)
-				si := map[string]float64{}
-				for _, m := range p.Result.Minerals {
-					si[m.Name] = dec(m.SI, 3)
-				}
-				pt["saturation_index"] = si
-				ix := p.Indices
-				pt["indices"] = indicesJSON(&ix)
-			}
-			j.Points = append(j.Points, pt)
-		}
-		js = append(js, j)
-	}
-	switch f {
-	case JSON:
-		return writeJSON(w, struct {
-			Samples []SweepJSON `json:"samples"`
-			Caution string      `json:"caution"`
-		}{js, Caution})
-	case CSV:
-		cw := csv.NewWriter(w)
-		header := []string{"name", "x_variable", "x", "y_variable", "y", "ph", "ionic_strength", "lsi", "rsi"}
-		for _, m := range sweepMinerals {
-			header = append(header, "si_"+m)
-		}
-		header = append(header, "error")
-		cw.Write(header)
-		for _, s := range ss {
-			if s.Err != nil {
-				cw.Write(append([]string{s.Name, s.X.Var.String()}, append(make([]string, len(header)-3), s.Err.Error())...))
-				continue
-			}
-			for _, p := range s.Points {
-				yv, yn := "", ""
-				if s.Y != nil {
-					yv, yn = fmtF(sig(p.Y, 6)), s.Y.Var.String()
-				}
-				row := []string{s.Name, s.X.Var.String(), fmtF(sig(p.X, 6)), yn, yv}
-				if p.Err != nil {
-					row = append(row, make([]string, len(header)-len(row)-1)...)
-					row = append(row, p.Err.Error())
-					cw.Write(row)
-					continue
-				}
-				ix := p.Indices
-				row = append(row, fmtF(dec(p.Result.PH, 3)), fmtF(sig(p.Result.IonicStrength, 4)), numOrBlank(ix.LSI, 2), numOrBlank(ix.RSI, 2))
-				for _, m := range sweepMinerals {
-					if v, ok := p.Result.SI(m); ok {
-						row = append(row, fmtF(dec(v, 3)))
-					} else {
-						row = append(row, "")
-					}
-				}
 				row = append(row, "")
-				cw.Write(row)
 			}
 		}
-		cw.Flush()
-		return cw.Error()
+		rows = append(rows, append(row, ""))
 	}
-	var b strings.Builder
-	for i, s := range ss {
-		if i > 0 {
-			b.WriteString("\n")
+	return rows
+}
+
+// writeSweepText writes the text table of one sample's sweep: pH, LSI and
+// the SI of each mineral of sweepMinerals the water has, then the notes.
+func writeSweepText(b *strings.Builder, s SweepOutcome) {
+	if s.Err != nil {
+		fmt.Fprintf(b, "%s: not computed: %v\n", s.Name, s.Err)
+		return
+	}
+	fmt.Fprintf(b, "%s: sweep of %s", s.Name, s.X.Var)
+	if s.Y != nil {
+		fmt.Fprintf(b, " and %s", s.Y.Var)
+	}
+	b.WriteString("\n")
+	shown := shownMinerals(s.Points)
+	fmt.Fprintf(b, "  %13s", variableKey(s.X.Var))
+	if s.Y != nil {
+		fmt.Fprintf(b, "  %13s", variableKey(s.Y.Var))
+	}
+	fmt.Fprintf(b, "  %6s  %6s", "pH", "LSI")
+	for _, m := range shown {
+		fmt.Fprintf(b, "  %*s", max(8, len(m)), m)
+	}
+	b.WriteString("\n")
+	notes := map[string]bool{}
+	for _, p := range s.Points {
+		fmt.Fprintf(b, "  %13.4g", p.X)
+		if s.Y != nil {
+			fmt.Fprintf(b, "  %13.4g", p.Y)
 		}
-		if s.Err != nil {
-			fmt.Fprintf(&b, "%s: not computed: %v\n", s.Name, s.Err)
+		if p.Err != nil {
+			fmt.Fprintf(b, "  %v\n", p.Err)
 			continue
 		}
-		fmt.Fprintf(&b, "%s: sweep of %s", s.Name, s.X.Var)
-		if s.Y != nil {
-			fmt.Fprintf(&b, " and %s", s.Y.Var)
+		fmt.Fprintf(b, "  %6.2f  %6s", p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+		for _, wn := range p.Result.Warnings {
+			notes[wn] = true
 		}
-		b.WriteString("\n")
-		var shown []string
-		for _, m := range sweepMinerals {
-			for _, p := range s.Points {
-				if p.Result != nil {
-					if _, ok := p.Result.SI(m); ok {
-						shown = append(shown, m)
-						break
-					}
-				}
-			}
-		}
-		fmt.Fprintf(&b, "  %13s", variableKey(s.X.Var))
-		if s.Y != nil {
-			fmt.Fprintf(&b, "  %13s", variableKey(s.Y.Var))
-		}
-		fmt.Fprintf(&b, "  %6s  %6s", "pH", "LSI")
 		for _, m := range shown {
-			fmt.Fprintf(&b, "  %*s", max(8, len(m)), m)
+			if v, ok := p.Result.SI(m); ok {
+				fmt.Fprintf(b, "  %+*.2f", max(8, len(m)), v)
+			} else {
+				fmt.Fprintf(b, "  %*s", max(8, len(m)), "–")
+			}
 		}
 		b.WriteString("\n")
-		notes := map[string]bool{}
-		for _, p := range s.Points {
-			fmt.Fprintf(&b, "  %13.4g", p.X)
-			if s.Y != nil {
-				fmt.Fprintf(&b, "  %13.4g", p.Y)
-			}
-			if p.Err != nil {
-				fmt.Fprintf(&b, "  %v\n", p.Err)
-				continue
-			}
-			fmt.Fprintf(&b, "  %6.2f  %6s", p.Result.PH, numOrBlank(p.Indices.LSI, 2))
-			for _, wn := range p.Result.Warnings {
-				notes[wn] = true
-			}
-			for _, m := range shown {
-				if v, ok := p.Result.SI(m); ok {
-					fmt.Fprintf(&b, "  %+*.2f", max(8, len(m)), v)
-				} else {
-					fmt.Fprintf(&b, "  %*s", max(8, len(m)), "–")
+	}
+	for _, wn := range slices.Sorted(maps.Keys(notes)) {
+		fmt.Fprintf(b, "  - %s\n", wn)
+	}
+}
+
+// shownMinerals are the minerals of sweepMinerals computed at any point.
+func shownMinerals(points []saturation.Point) []string {
+	var shown []string
+	for _, m := range sweepMinerals {
+		for _, p := range points {
+			if p.Result != nil {
+				if _, ok := p.Result.SI(m); ok {
+					shown = append(shown, m)
+					break
 				}
 			}
-			b.WriteString("\n")
-		}
-		for _, wn := range slices.Sorted(maps.Keys(notes)) {
-			fmt.Fprintf(&b, "  - %s\n", wn)
 		}
 	}
-	b.WriteString("\n" + wrap(Caution, 78) + "\n")
-	_, err := io.WriteString(w, b.String())
-	return err
+	return shown
 }
 
 func numOrBlank(v float64, decimals int) string {

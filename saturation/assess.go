@@ -22,7 +22,9 @@ type Assessment struct {
 	// Precipitation lists the supersaturated minerals that form readily,
 	// with the amount that could precipitate alone and together.
 	Precipitation []Precipitation
-	// Flow is the flow of the water, m³/h, from Options.Flow (0 when none).
+	// Flow is the flow of the water, m³/h, that reports use to give scale
+	// in kg/day; 0 when none is given. The assessment itself leaves it 0:
+	// the caller sets it.
 	Flow float64
 	// Warnings are notes of the indices and precipitation calculations
 	// (the speciation's own are in Result.Warnings).
@@ -34,28 +36,50 @@ type Assessment struct {
 }
 
 // AssessRecords speciates every good record of a file under opt, in file
-// order, with one warm-started Speciator, and adds the classic indices and
-// the precipitation potential. A bad record comes out as an Assessment
-// carrying its error; the others are still computed.
+// order, with one Speciator (see AssessRecord), and adds the classic
+// indices and the precipitation potential. A bad record comes out as an
+// Assessment carrying its error; the others are still computed.
 func AssessRecords(file string, records []water.Record, opt Options) []Assessment {
 	sp := NewSpeciator(opt.Model)
 	out := make([]Assessment, 0, len(records))
 	for _, rec := range records {
-		as := Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err, Flow: opt.Flow}
-		if rec.Err != nil {
-			as.BadInput = true
-			out = append(out, as)
-			continue
-		}
-		sp.assess(&as, rec.Analysis, opt)
-		out = append(out, as)
+		out = append(out, sp.AssessRecord(file, rec, opt))
 	}
 	return out
 }
 
+// AssessRecord assesses one record of file: the quality checks, the
+// speciation, the classic indices and the precipitation potential; a bad
+// record comes out carrying its error (BadInput set). Each record starts
+// cold: the answer does not depend on the waters this Speciator solved
+// before, so any number of Speciators sharing out the records of a file
+// give the same answers as one.
+func (sp *Speciator) AssessRecord(file string, rec water.Record, opt Options) Assessment {
+	as := Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err}
+	if rec.Err != nil {
+		as.BadInput = true
+		return as
+	}
+	sp.coldStart()
+	sp.assess(&as, rec.Analysis, opt)
+	return as
+}
+
+// coldStart forgets the previous solution and carbon fix, so that the next
+// speciation starts from the cold guess.
+func (sp *Speciator) coldStart() {
+	sp.fixCached = false
+	if sp.solver != nil {
+		sp.solver.hasSol = false
+	}
+	if sp.pitzer != nil {
+		sp.pitzer.hasSol = false
+	}
+}
+
 // AssessAnalysis assesses one water as AssessRecords does a record.
 func AssessAnalysis(a water.Analysis, opt Options) Assessment {
-	as := Assessment{Name: a.Name, Flow: opt.Flow}
+	as := Assessment{Name: a.Name}
 	NewSpeciator(opt.Model).assess(&as, a, opt)
 	return as
 }

@@ -59,9 +59,6 @@ type Options struct {
 	LogPCO2   float64
 	// Model is the reduced thermodynamic table; nil means DefaultModel.
 	Model *Model
-	// Flow is the flow of the water, m³/h, for the kg/day figures of
-	// precipitation and doses; 0 means none are given.
-	Flow float64
 }
 
 // KgPerDay converts mg/L of a flow of m³/h to kg/day: mg/L × m³/h × 24 h/d

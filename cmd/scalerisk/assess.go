@@ -7,6 +7,7 @@ import (
 
 	"scalerisk/reports"
 	"scalerisk/saturation"
+	"scalerisk/water"
 )
 
 func newAssessCmd(stdin io.Reader) *cobra.Command {
@@ -35,23 +36,24 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if opt.Carbonate, opt.PH, opt.LogPCO2, err = saturation.ParseCarbonateMode(carbonate); err != nil {
 				return badInput(err)
 			}
-			stderr := cmd.ErrOrStderr()
-			files, problems, err := c.read(cmd, args, stdin, ropt)
+			r, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
 			}
-			var all []saturation.Assessment
-			failures := 0
-			for _, f := range files {
-				for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
-					tally(stderr, a, &problems, &failures)
-					all = append(all, a)
-				}
-			}
-			if err := reports.WriteAssessments(cmd.OutOrStdout(), format, all); err != nil {
-				return &exitError{code: exitInternal, err: err}
-			}
-			return finish(problems, failures)
+			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions())
+			return stream(r, src, w, batch[saturation.Assessment]{
+				newWorker: func() func(string, water.Record) (saturation.Assessment, error) {
+					sp := saturation.NewSpeciator(opt.Model)
+					return func(file string, rec water.Record) (saturation.Assessment, error) {
+						a := sp.AssessRecord(file, rec, opt)
+						a.Flow = c.flow
+						return a, a.Err
+					}
+				},
+				bad: func(file string, rec water.Record) saturation.Assessment {
+					return saturation.Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err, BadInput: true}
+				},
+			})
 		},
 	}
 	c.register(cmd)

@@ -4,8 +4,10 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"iter"
 	"math"
 	"os"
+	"runtime"
 
 	"github.com/spf13/cobra"
 
@@ -23,6 +25,7 @@ type commonFlags struct {
 	belowDetection string
 	demo           bool
 	flow           float64
+	jobs           int
 }
 
 // register adds the shared flags to cmd.
@@ -35,6 +38,7 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 	f.StringVar(&c.belowDetection, "below-detection", "half", "value for \"<x\" results: half (x/2), zero or limit (x)")
 	f.BoolVar(&c.demo, "demo", false, "use the embedded demo waters of a fictional plant")
 	f.Float64Var(&c.flow, "flow", 0, "flow of the water, m³/h, to give scale and doses in kg/day")
+	f.IntVar(&c.jobs, "jobs", runtime.NumCPU(), "samples computed at once (workers); the output is the same for any number")
 }
 
 // setup turns the shared flags into a format, speciation options and read
@@ -55,7 +59,10 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	if !(c.flow >= 0) || math.IsInf(c.flow, 0) {
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--flow %g: want a flow of 0 or more m³/h", c.flow))
 	}
-	opt := saturation.Options{Activity: activity, Flow: c.flow}
+	if c.jobs < 1 {
+		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--jobs %d: want 1 or more workers", c.jobs))
+	}
+	opt := saturation.Options{Activity: activity}
 	if cmd.Flags().Changed("temperature") {
 		if !(c.temperature >= saturation.MinTemperature && c.temperature <= saturation.MaxTemperature) { // also rejects NaN
 			return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--temperature %g is outside %d–%d °C",
@@ -73,6 +80,26 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	return format, opt, water.ReadOptions{Detection: policy}, nil
 }
 
+// writeOptions are the options of the sample writers.
+func (c *commonFlags) writeOptions() reports.WriteOptions {
+	return reports.WriteOptions{Indent: true}
+}
+
+// mineralNames lists the minerals of model (nil: the default) in table
+// order: the "si_" columns of assess CSV, fixed before any sample is
+// computed.
+func mineralNames(model *saturation.Model) []string {
+	table := saturation.DefaultTable()
+	if model != nil {
+		table = model.Table()
+	}
+	var names []string
+	for _, e := range table.Minerals() {
+		names = append(names, e.Name)
+	}
+	return names
+}
+
 // inputs lists the inputs named by args, the demo file first with --demo.
 func (c *commonFlags) inputs(args []string) []input {
 	var in []input
@@ -85,76 +112,15 @@ func (c *commonFlags) inputs(args []string) []input {
 	return in
 }
 
-// read reads the inputs named by args (and the demo with --demo); no input
-// at all is a bad-input error.
-func (c *commonFlags) read(cmd *cobra.Command, args []string, stdin io.Reader, ropt water.ReadOptions) ([]fileRecords, int, error) {
+// runner checks that there is some input and returns the runner of the
+// command, and the items of its inputs (the demo file first with --demo).
+func (c *commonFlags) runner(cmd *cobra.Command, args []string, stdin io.Reader, ropt water.ReadOptions) (*runner, iter.Seq[item], error) {
 	inputs := c.inputs(args)
 	if len(inputs) == 0 {
-		return nil, 0, badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
+		return nil, nil, badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
 	}
-	files, problems := readAll(inputs, stdin, ropt, cmd.ErrOrStderr())
-	return files, problems, nil
-}
-
-// fileRecords is what one input held.
-type fileRecords struct {
-	name    string
-	records []water.Record
-}
-
-// readAll reads every input, printing file problems and bad rows to
-// stderr; it returns the records of each readable file and the number of
-// problems printed.
-func readAll(inputs []input, stdin io.Reader, ropt water.ReadOptions, stderr io.Writer) ([]fileRecords, int) {
-	var out []fileRecords
-	problems := 0
-	for _, in := range inputs {
-		records, probs, err := readInput(in, stdin, ropt)
-		if err != nil {
-			fmt.Fprintln(stderr, err)
-			problems++
-			continue
-		}
-		for _, p := range probs {
-			fmt.Fprintln(stderr, p)
-			problems++
-		}
-		for _, r := range records {
-			if r.Err != nil {
-				fmt.Fprintln(stderr, r.Err)
-				problems++
-			}
-		}
-		out = append(out, fileRecords{name: in.name, records: records})
-	}
-	return out, problems
-}
-
-// tally reports the error of an assessment on stderr, if it has one not
-// already reported by the reader, and counts it: an inconsistent analysis
-// as bad input, any other as a failure.
-func tally(stderr io.Writer, a saturation.Assessment, problems, failures *int) {
-	switch {
-	case a.Err == nil:
-	case errors.Is(a.Err, saturation.ErrInconsistent):
-		fmt.Fprintf(stderr, "%s:%d: %v\n", a.File, a.Line, a.Err)
-		*problems++
-	case !a.BadInput:
-		fmt.Fprintf(stderr, "%s:%d: %v\n", a.File, a.Line, a.Err)
-		*failures++
-	}
-}
-
-// finish maps the counts of bad input and of failed samples to the exit
-// status: 2 for bad input, else 1 for failures, else success.
-func finish(problems, failures int) error {
-	switch {
-	case problems > 0:
-		return &exitError{code: exitBadInput, err: fmt.Errorf("%d input problem(s)", problems), quiet: true}
-	case failures > 0:
-		return &exitError{code: exitInternal, err: fmt.Errorf("%d sample(s) could not be computed", failures), quiet: true}
-	}
-	return nil
+	r := &runner{stdin: stdin, stderr: cmd.ErrOrStderr(), jobs: c.jobs}
+	return r, items(inputs, stdin, ropt), nil
 }
 
 // demoName is the file name the embedded demo waters carry in output.
@@ -190,6 +156,28 @@ func readInput(in input, stdin io.Reader, opt water.ReadOptions) ([]water.Record
 		r = f
 	}
 	return water.Read(name, r, opt)
+}
+
+// records yields the records of one input one at a time, and its file
+// problems (the fatal one, if any, last).
+func records(in input, stdin io.Reader, opt water.ReadOptions) iter.Seq2[water.Record, error] {
+	return func(yield func(water.Record, error) bool) {
+		recs, probs, err := readInput(in, stdin, opt)
+		if err != nil {
+			yield(water.Record{}, err)
+			return
+		}
+		for _, p := range probs {
+			if !yield(water.Record{}, p) {
+				return
+			}
+		}
+		for _, rec := range recs {
+			if !yield(rec, nil) {
+				return
+			}
+		}
+	}
 }
 
 // loadThermo reads an extra thermodynamic table over the embedded one.

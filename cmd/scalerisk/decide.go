@@ -15,28 +15,6 @@ import (
 	"scalerisk/water"
 )
 
-// forEachGood runs fn on every good record of the inputs and reports each
-// error on stderr: an inconsistent analysis counts as bad input, anything
-// else as a failure.
-func forEachGood(files []fileRecords, stderr io.Writer, fn func(file string, rec water.Record) error) (failures, problems int) {
-	for _, f := range files {
-		for _, rec := range f.records {
-			if rec.Err != nil {
-				continue
-			}
-			if err := fn(f.name, rec); err != nil {
-				fmt.Fprintf(stderr, "%s:%d: %v\n", f.name, rec.Line, err)
-				if errors.Is(err, saturation.ErrInconsistent) {
-					problems++
-				} else {
-					failures++
-				}
-			}
-		}
-	}
-	return failures, problems
-}
-
 func newDoseCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
 	var reagent, target, carbonate string
@@ -74,20 +52,19 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if strength != 0 && !(strength > 0 && strength <= 100) {
 				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
 			}
-			files, problems, err := c.read(cmd, args, stdin, ropt)
+			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
 			}
-			var out []reports.DoseOutcome
-			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
-				d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
-				out = append(out, reports.DoseOutcome{Name: rec.Name, Result: d, Flow: opt.Flow, Err: err})
-				return err
+			w := reports.NewDoseWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			return stream(run, src, w, batch[reports.DoseOutcome]{
+				newWorker: func() func(string, water.Record) (reports.DoseOutcome, error) {
+					return func(_ string, rec water.Record) (reports.DoseOutcome, error) {
+						d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
+						return reports.DoseOutcome{Name: rec.Name, Result: d, Flow: c.flow, Err: err}, err
+					}
+				},
 			})
-			if err := reports.WriteDoses(cmd.OutOrStdout(), format, out); err != nil {
-				return &exitError{code: exitInternal, err: err}
-			}
-			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
@@ -155,20 +132,19 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if !(step >= (maxN-1)/1000) || math.IsInf(step, 0) || !(evaporation >= 0) || math.IsInf(evaporation, 0) {
 				return badInput(fmt.Errorf("--step must be at least (max−1)/1000 = %g and --evaporation a finite 0 or more", (maxN-1)/1000))
 			}
-			files, problems, err := c.read(cmd, args, stdin, ropt)
+			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
 			}
-			var out []reports.CyclesOutcome
-			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
-				r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
-				out = append(out, reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Result: r, Evaporation: evaporation, Err: err})
-				return err
+			w := reports.NewCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			return stream(run, src, w, batch[reports.CyclesOutcome]{
+				newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
+					return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
+						r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
+						return reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Result: r, Evaporation: evaporation, Err: err}, err
+					}
+				},
 			})
-			if err := reports.WriteCycles(cmd.OutOrStdout(), format, out); err != nil {
-				return &exitError{code: exitInternal, err: err}
-			}
-			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
@@ -268,20 +244,19 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 				}
 				y = &axes[1]
 			}
-			files, problems, err := c.read(cmd, args, stdin, ropt)
+			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
 			}
-			var out []reports.SweepOutcome
-			failures, bad := forEachGood(files, cmd.ErrOrStderr(), func(_ string, rec water.Record) error {
-				pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
-				out = append(out, reports.SweepOutcome{Name: rec.Name, X: axes[0], Y: y, Points: pts, Err: err})
-				return err
+			w := reports.NewSweepWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			return stream(run, src, w, batch[reports.SweepOutcome]{
+				newWorker: func() func(string, water.Record) (reports.SweepOutcome, error) {
+					return func(_ string, rec water.Record) (reports.SweepOutcome, error) {
+						pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
+						return reports.SweepOutcome{Name: rec.Name, X: axes[0], Y: y, Points: pts, Err: err}, err
+					}
+				},
 			})
-			if err := reports.WriteSweeps(cmd.OutOrStdout(), format, out); err != nil {
-				return &exitError{code: exitInternal, err: err}
-			}
-			return finish(problems+bad, failures)
 		},
 	}
 	c.register(cmd)
@@ -322,12 +297,18 @@ func firstSample(file string, stdin io.Reader, ropt water.ReadOptions) (water.An
 	if file == "" {
 		return water.Analysis{}, badInput(errors.New("a blend needs a second water (--partner FILE)"))
 	}
-	return pickSample(input{name: file}, "", stdin, ropt)
+	return pickSample(input{name: file}, sampleChoice{nth: 1}, stdin, ropt)
 }
 
-// pickSample returns the good sample named name of an input: the first one
-// when name is empty, the second when name is "#2".
-func pickSample(in input, name string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+// sampleChoice picks a good sample of an input: by name, or else the nth
+// (counting from 1).
+type sampleChoice struct {
+	name string
+	nth  int
+}
+
+// pickSample returns the good sample of an input that choice picks.
+func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
 	records, probs, err := readInput(in, stdin, ropt)
 	if err != nil {
 		return water.Analysis{}, badInput(err)
@@ -341,15 +322,14 @@ func pickSample(in input, name string, stdin io.Reader, ropt water.ReadOptions) 
 			continue
 		}
 		seen++
-		if (name == "" && seen == 1) || (name == "#2" && seen == 2) || r.Name == name {
+		if (choice.name == "" && seen == choice.nth) || (choice.name != "" && r.Name == choice.name) {
 			return r.Analysis, nil
 		}
 	}
-	switch name {
-	case "", "#2":
+	if choice.name == "" {
 		return water.Analysis{}, badInput(fmt.Errorf("%s: not enough good samples", in.name))
 	}
-	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", in.name, name))
+	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", in.name, choice.name))
 }
 
 func newBlendCmd(stdin io.Reader) *cobra.Command {
@@ -379,19 +359,18 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 			// both waters.
 			inputs := c.inputs(args)
 			names := append(samples, "", "")[:2]
+			choices := []sampleChoice{{name: names[0], nth: 1}, {name: names[1], nth: 1}}
 			switch len(inputs) {
 			case 1:
 				inputs = append(inputs, inputs[0])
-				if names[1] == "" {
-					names[1] = "#2" // the second sample of the same file
-				}
+				choices[1].nth = 2 // the second sample of the same file when not named
 			case 2:
 			default:
 				return badInput(fmt.Errorf("blend takes two waters: two files, or one file (or --demo) with --sample twice; got %d inputs", len(inputs)))
 			}
 			var ws []water.Analysis
 			for i, in := range inputs {
-				w, err := pickSample(in, names[i], stdin, ropt)
+				w, err := pickSample(in, choices[i], stdin, ropt)
 				if err != nil {
 					return err
 				}
@@ -402,14 +381,17 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 				return &exitError{code: exitInternal, err: err}
 			}
 			as := saturation.AssessAnalysis(blend, opt)
-			if err := reports.WriteAssessments(cmd.OutOrStdout(), format, []saturation.Assessment{as}); err != nil {
+			as.Flow = c.flow
+			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions())
+			if err := w.WriteAll(as); err != nil {
 				return &exitError{code: exitInternal, err: err}
 			}
+			r := &runner{stderr: cmd.ErrOrStderr()}
 			if as.Err != nil {
-				fmt.Fprintln(cmd.ErrOrStderr(), as.Err)
-				return finish(0, 1)
+				fmt.Fprintln(r.stderr, as.Err)
+				r.failures++
 			}
-			return nil
+			return r.exit()
 		},
 	}
 	c.register(cmd)

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
+	"slices"
 	"time"
 
 	"github.com/spf13/cobra"
@@ -139,11 +140,10 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		partner = &p
 	}
 
-	files, problems, err := o.common.read(cmd, args, stdin, ropt)
+	r, src, err := o.common.runner(cmd, args, stdin, ropt)
 	if err != nil {
 		return err
 	}
-	stderr := cmd.ErrOrStderr()
 	rep := reports.Report{Title: o.title, Client: o.client, Options: hopt}
 	switch o.date {
 	case "":
@@ -152,23 +152,40 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	default:
 		rep.Date = o.date
 	}
-	failures := 0
-	for _, f := range files {
-		rep.Inputs = append(rep.Inputs, f.name)
-		for _, a := range saturation.AssessRecords(f.name, f.records, opt) {
-			s := reports.ReportSample{Assessment: a}
-			tally(stderr, a, &problems, &failures)
-			if a.Result != nil && (target != nil || profile != nil || partner != nil) {
-				s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
-				if partner != nil {
-					s.Treatment.Blends = append(s.Treatment.Blends, blendOf(a, *partner, o.blendFraction, opt))
+	// Each worker assesses a sample and runs its treatment searches; the
+	// samples are kept in input order for the report.
+	err = runBatch(r, src, batch[reports.ReportSample]{
+		newWorker: func() func(string, water.Record) (reports.ReportSample, error) {
+			sp := saturation.NewSpeciator(opt.Model)
+			return func(file string, rec water.Record) (reports.ReportSample, error) {
+				a := sp.AssessRecord(file, rec, opt)
+				a.Flow = o.common.flow
+				s := reports.ReportSample{Assessment: a}
+				if a.Result != nil && (target != nil || profile != nil || partner != nil) {
+					s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
+					if partner != nil {
+						s.Treatment.Blends = append(s.Treatment.Blends, blendOf(a, *partner, o.blendFraction, opt))
+					}
 				}
+				return s, a.Err
+			}
+		},
+		bad: func(file string, rec water.Record) reports.ReportSample {
+			return reports.ReportSample{Assessment: saturation.Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err, BadInput: true}}
+		},
+		write: func(s reports.ReportSample) error {
+			if !slices.Contains(rep.Inputs, s.File) {
+				rep.Inputs = append(rep.Inputs, s.File)
 			}
 			rep.Samples = append(rep.Samples, s)
-		}
+			return nil
+		},
+	})
+	if err != nil {
+		return &exitError{code: exitInternal, err: err}
 	}
 	if len(rep.Samples) == 0 {
-		return &exitError{code: exitBadInput, err: errors.New("no samples to report"), quiet: problems > 0}
+		return &exitError{code: exitBadInput, err: errors.New("no samples to report"), quiet: r.problems > 0}
 	}
 	if o.output == "-" {
 		err = reports.WriteHTML(cmd.OutOrStdout(), rep)
@@ -185,7 +202,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output != "-" {
 		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, len(rep.Samples))
 	}
-	return finish(problems, failures)
+	return r.exit()
 }
 
 // blendOf blends the sample with the partner water at fraction f (the

@@ -1,0 +1,203 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"iter"
+	"sync"
+
+	"scalerisk/reports"
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// runner holds what every command that reads waters shares: standard
+// input and error, the number of workers, and one tally of bad input and
+// of samples that could not be computed, which exit turns into the exit
+// status.
+type runner struct {
+	stdin    io.Reader
+	stderr   io.Writer
+	jobs     int
+	problems int // bad input: file problems, bad rows, inconsistent analyses
+	failures int // samples that could not be computed
+}
+
+// problem reports a fault of the input on stderr and counts it.
+func (r *runner) problem(err error) {
+	fmt.Fprintln(r.stderr, err)
+	r.problems++
+}
+
+// sampleError reports the error of a sample computed from a good row,
+// naming its file and line, and counts it: an inconsistent analysis as bad
+// input, any other as a failure.
+func (r *runner) sampleError(file string, line int, err error) {
+	fmt.Fprintf(r.stderr, "%s:%d: %v\n", file, line, err)
+	if errors.Is(err, saturation.ErrInconsistent) {
+		r.problems++
+	} else {
+		r.failures++
+	}
+}
+
+// exit maps the tally to the command's error: exit status 2 for bad input,
+// else 1 for failures, else success (nil). The messages have been printed.
+func (r *runner) exit() error {
+	switch {
+	case r.problems > 0:
+		return &exitError{code: exitBadInput, err: fmt.Errorf("%d input problem(s)", r.problems), quiet: true}
+	case r.failures > 0:
+		return &exitError{code: exitInternal, err: fmt.Errorf("%d sample(s) could not be computed", r.failures), quiet: true}
+	}
+	return nil
+}
+
+// item is one thing read from the inputs, in input order: a record (a
+// sample, or a bad row carrying its error) of file, or a problem of the
+// file that is not a row.
+type item struct {
+	file    string
+	rec     water.Record
+	problem error
+}
+
+// items yields everything read from the inputs, one at a time, in order.
+func items(inputs []input, stdin io.Reader, ropt water.ReadOptions) iter.Seq[item] {
+	return func(yield func(item) bool) {
+		for _, in := range inputs {
+			for rec, err := range records(in, stdin, ropt) {
+				if !yield(item{file: in.name, rec: rec, problem: err}) {
+					return
+				}
+			}
+		}
+	}
+}
+
+// batch is one command's work on every sample of its inputs.
+type batch[T any] struct {
+	// newWorker returns the function one worker computes good records
+	// with (it owns its solver). The error is the sample's, reported and
+	// tallied; the result is written all the same.
+	newWorker func() func(file string, rec water.Record) (T, error)
+	// bad, when not nil, turns a bad row into a result that is written
+	// too (assess and report list bad rows); otherwise a bad row is only
+	// reported.
+	bad func(file string, rec water.Record) T
+	// write writes one result; results come in input order. An error
+	// stops the run.
+	write func(T) error
+}
+
+// job is one item, numbered in input order, and what a worker made of it.
+type job[T any] struct {
+	seq int
+	it  item
+	out T
+	err error
+}
+
+// runBatch reads the items of src, computes the good records in r.jobs
+// workers and hands each result to b.write in input order as soon as it
+// and every earlier one are done, reporting problems and sample errors on
+// stderr in the same order. At most a few times r.jobs items are in flight,
+// so memory does not grow with the input. A write error cancels the run and
+// is returned.
+func runBatch[T any](r *runner, src iter.Seq[item], b batch[T]) error {
+	jobs := max(r.jobs, 1)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()                        // a write error leaves the reader and the workers: they stop
+	window := make(chan struct{}, 4*jobs) // a token per item in flight
+	todo := make(chan job[T], jobs)
+	done := make(chan job[T], jobs)
+	go func() {
+		defer close(todo)
+		seq := 0
+		for it := range src {
+			select {
+			case window <- struct{}{}:
+			case <-ctx.Done():
+				return
+			}
+			select {
+			case todo <- job[T]{seq: seq, it: it}:
+			case <-ctx.Done():
+				return
+			}
+			seq++
+		}
+	}()
+	var wg sync.WaitGroup
+	for range jobs {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			work := b.newWorker()
+			for res := range todo {
+				if res.it.problem == nil && res.it.rec.Err == nil {
+					res.out, res.err = work(res.it.file, res.it.rec)
+				}
+				select {
+				case done <- res:
+				case <-ctx.Done():
+					return
+				}
+			}
+		}()
+	}
+	go func() {
+		wg.Wait()
+		close(done)
+	}()
+	pending := make(map[int]job[T], cap(window))
+	next := 0
+	for res := range done {
+		pending[res.seq] = res
+		for p, ok := pending[next]; ok; p, ok = pending[next] {
+			delete(pending, next)
+			next++
+			<-window
+			if err := emit(r, p, b); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}
+
+// emit reports and writes one result.
+func emit[T any](r *runner, res job[T], b batch[T]) error {
+	it := res.it
+	switch {
+	case it.problem != nil:
+		r.problem(it.problem)
+		return nil
+	case it.rec.Err != nil:
+		r.problem(it.rec.Err)
+		if b.bad == nil {
+			return nil
+		}
+		return b.write(b.bad(it.file, it.rec))
+	case res.err != nil:
+		r.sampleError(it.file, it.rec.Line, res.err)
+	}
+	return b.write(res.out)
+}
+
+// stream runs b over src with r, writing each result with w as soon as it
+// is ready, then ends the document and maps the tally to the exit status.
+// A write error (a closed pipe, a full disk) is a failure.
+func stream[T any](r *runner, src iter.Seq[item], w *reports.SampleWriter[T], b batch[T]) error {
+	b.write = w.Write
+	err := runBatch(r, src, b)
+	if err == nil {
+		err = w.Close()
+	}
+	if err != nil {
+		return &exitError{code: exitInternal, err: err}
+	}
+	return r.exit()
+}
