@@ -142,6 +142,11 @@ type CyclePoint struct {
 	Cycles  float64
 	Result  *Result
 	Indices Indices
+	// Skin and SkinIndices are the same water judged at the skin
+	// temperature, bulk pH held (nil when the decision has none; see
+	// Options.Skin).
+	Skin        *Result
+	SkinIndices Indices
 	// Dose is the acid dose, mg/L of product, that holds the rule's pH set
 	// point at this cycle (0 without a set point or when none is needed).
 	Dose float64
@@ -156,21 +161,94 @@ type CyclesResult struct {
 	Profile LimitProfile
 	Rule    CarbonateRule
 	// MaxCycles is the highest number of cycles at which every limit of the
-	// profile holds; Limiting is the quantity that reaches its limit there.
-	// When no limit is reached up to the search's end, MaxCycles is that
-	// end and Limiting is empty; when a limit is already passed in the
-	// makeup, MaxCycles is 1 and Exceeded names it.
+	// profile holds at the bulk and at the skin temperature; Limiting is the
+	// quantity that reaches its limit there. When no limit is reached up to
+	// the search's end, MaxCycles is that end and Limiting is empty; when a
+	// limit is already passed in the makeup, MaxCycles is 1 and Exceeded
+	// names it.
 	MaxCycles float64
 	Limiting  string
 	Exceeded  []string
-	Points    []CyclePoint
-	Warnings  []string
+	// Judged says at which temperatures the limits were judged and which
+	// one governs MaxCycles.
+	Judged   Judgement
+	Points   []CyclePoint
+	Warnings []string
+}
+
+// Judgement records the two temperatures a decision is judged at — the
+// bulk water's and the hottest surface it meets — the answer at each, and
+// which governs (the stricter one).
+type Judgement struct {
+	Bulk float64 // °C, the temperature of evaluation
+	// Skin is the skin temperature, °C; NaN when the decision was judged at
+	// the bulk temperature only (no skin asked, or one not above the bulk).
+	Skin float64
+	// AtBulk and AtSkin are the answers judged at each temperature alone
+	// (cycles, or mg/L of a dose); AtSkin is NaN without a skin.
+	AtBulk, AtSkin float64
+	// Governing is the temperature whose answer is the decision, °C.
+	Governing float64
+}
+
+// SkinGoverns reports whether the skin temperature governs the decision.
+func (j Judgement) SkinGoverns() bool { return !math.IsNaN(j.Skin) && j.Governing == j.Skin }
+
+// skinOf returns the skin temperature a decision on water r is also
+// judged at: opt.Skin when it is above r's temperature, else NaN.
+func skinOf(bulk float64, opt Options) float64 {
+	if opt.Skin > bulk {
+		return opt.Skin
+	}
+	return math.NaN()
+}
+
+// heat returns the water of r as the trade judges it at a hot surface of
+// temperature t °C: the bulk pH held, alkalinity conserved, every constant
+// at t. This is the classic skin-temperature index — the water's pH against
+// the saturation pH at the hottest waterside temperature (UFC 3-240-13FN
+// Example B-1 takes that temperature; practice.md §4.1; common practice).
+// It is the cautious side: heated in a closed tube the pH would fall by
+// some tenths, and most saturation indices with it.
+func (sp *Speciator) heat(r *Result, t float64, opt Options) (*Result, Indices, error) {
+	o := opt
+	o.AtTemperature, o.Temperature = true, t
+	o.Carbonate, o.PH = FixedPHAlkalinity, r.PH
+	hr, err := sp.Speciate(r.Analysis, o)
+	if err != nil {
+		return nil, Indices{}, fmt.Errorf("at the skin temperature %g °C: %w", t, err)
+	}
+	ix, _ := sp.ClassicIndicesNoCCPP(hr)
+	return hr, ix, nil
+}
+
+// excessOf returns the largest value − limit over profile for one result,
+// the quantity it belongs to, and the quantities above their limits.
+func excessOf(profile LimitProfile, r *Result, ix Indices) (float64, string, []string) {
+	worst, which := math.Inf(-1), ""
+	var over []string
+	for _, l := range profile.Limits {
+		v, ok := l.Value(r, ix)
+		if !ok {
+			continue
+		}
+		if v-l.Max > worst {
+			worst, which = v-l.Max, l.Quantity
+		}
+		if v > l.Max {
+			over = append(over, l.Quantity)
+		}
+	}
+	return worst, which, over
 }
 
 // MaxCycles concentrates makeup water a by cycles from 1 to maxN (at a's
 // temperature, or opt's), finds the carbonate state at each by rule, and
 // returns the highest number of cycles at which every limit of profile
-// holds, with the limiting quantity. The points are on a grid of step
+// holds, with the limiting quantity. With opt.Skin above the bulk
+// temperature, each point is also judged at the skin temperature (bulk pH
+// held, see heat); the answer is the lower of the two and
+// Judged says which temperature governs. The points are on a grid of step
 // (0.5 when 0); the crossing is refined between grid points by Brent's
 // method. Blowdown and make-up follow from the answer (water.MakeupAndBlowdown).
 func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN, step float64, opt Options) (*CyclesResult, error) {
@@ -180,12 +258,21 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 	if step <= 0 {
 		step = 0.5
 	}
+	if step < (maxN-1)/maxCyclePoints {
+		return nil, fmt.Errorf("a step of %g cycles makes more than %d points up to %g cycles", step, maxCyclePoints, maxN)
+	}
 	sp := NewSpeciator(opt.Model)
 	base, _, err := sp.Fix(a, opt)
 	if err != nil {
 		return nil, err
 	}
-	res := &CyclesResult{Profile: profile, Rule: rule, MaxCycles: maxN}
+	bulkT := a.Temperature
+	if opt.AtTemperature {
+		bulkT = opt.Temperature
+	}
+	skin := skinOf(bulkT, opt)
+	res := &CyclesResult{Profile: profile, Rule: rule, MaxCycles: maxN,
+		Judged: Judgement{Bulk: bulkT, Skin: skin, AtSkin: math.NaN(), Governing: bulkT}}
 	eval := func(n float64) CyclePoint {
 		pt := CyclePoint{Cycles: n}
 		w, err := base.Concentrate(n)
@@ -197,29 +284,10 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 		if pt.Err == nil {
 			pt.Indices, _ = sp.ClassicIndicesNoCCPP(pt.Result)
 		}
-		return pt
-	}
-	// excess returns the largest value − limit over the profile at one point,
-	// and the quantity it belongs to.
-	excess := func(pt CyclePoint) (float64, string, []string) {
-		worst, which := math.Inf(-1), ""
-		var over []string
-		for _, l := range profile.Limits {
-			v, ok := l.Value(pt.Result, pt.Indices)
-			if !ok {
-				continue
-			}
-			if v-l.Max > worst {
-				worst, which = v-l.Max, l.Quantity
-			}
-			if v > l.Max {
-				over = append(over, l.Quantity)
-			}
+		if pt.Err == nil && !math.IsNaN(skin) {
+			pt.Skin, pt.SkinIndices, pt.Err = sp.heat(pt.Result, skin, opt)
 		}
-		return worst, which, over
-	}
-	if step < (maxN-1)/maxCyclePoints {
-		return nil, fmt.Errorf("a step of %g cycles makes more than %d points up to %g cycles", step, maxCyclePoints, maxN)
+		return pt
 	}
 	for k := 0; ; k++ {
 		n := 1 + float64(k)*step
@@ -244,28 +312,69 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 			}
 		}
 	}
-	first := res.Points[0]
-	if first.Err != nil {
+	if first := res.Points[0]; first.Err != nil {
 		return nil, first.Err
 	}
-	if w, _, over := excess(first); w > 0 {
-		res.MaxCycles, res.Exceeded = 1, over
-		res.Warnings = append(res.Warnings, fmt.Sprintf("the makeup itself already exceeds the %s profile for %s: no cycles are safe without treatment",
-			profile.Name, strings.Join(over, ", ")))
-		return res, nil
+	bulk := judgeCycles(res.Points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Result, p.Indices })
+	pick := bulk
+	res.Judged.AtBulk = bulk.max
+	if !math.IsNaN(skin) {
+		hot := judgeCycles(res.Points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Skin, p.SkinIndices })
+		res.Judged.AtSkin = hot.max
+		if hot.max < bulk.max || (hot.max == bulk.max && len(hot.exceeded) > len(bulk.exceeded)) {
+			pick, res.Judged.Governing = hot, skin
+		}
 	}
-	for k := 1; k < len(res.Points); k++ {
-		pt := res.Points[k]
+	res.MaxCycles, res.Limiting, res.Exceeded = pick.max, pick.limiting, pick.exceeded
+	res.Warnings = append(res.Warnings, pick.warnings...)
+	if len(pick.exceeded) > 0 {
+		where := "the makeup itself"
+		if res.Judged.SkinGoverns() {
+			where = fmt.Sprintf("the makeup heated to the %g °C skin", skin)
+		}
+		res.Warnings = append(res.Warnings, fmt.Sprintf("%s already exceeds the %s profile for %s: no cycles are safe without treatment",
+			where, profile.Name, strings.Join(pick.exceeded, ", ")))
+	} else if pick.limiting == "" && pick.err == nil {
+		res.Warnings = append(res.Warnings, fmt.Sprintf("no limit of the %s profile is reached up to %g cycles", profile.Name, maxN))
+	}
+	return res, nil
+}
+
+// cyclesAnswer is the highest cycles under a profile judged at one
+// temperature.
+type cyclesAnswer struct {
+	max      float64
+	limiting string
+	exceeded []string
+	warnings []string
+	err      error // a point that could not be computed ended the search
+}
+
+// judgeCycles walks the points (their result at one temperature, given by
+// at) to the first that passes a limit, and refines the crossing by
+// Brent's method with eval.
+func judgeCycles(points []CyclePoint, profile LimitProfile, eval func(float64) CyclePoint, at func(CyclePoint) (*Result, Indices)) cyclesAnswer {
+	excess := func(p CyclePoint) (float64, string, []string) {
+		r, ix := at(p)
+		return excessOf(profile, r, ix)
+	}
+	ans := cyclesAnswer{max: points[len(points)-1].Cycles}
+	if w, _, over := excess(points[0]); w > 0 {
+		ans.max, ans.exceeded = 1, over
+		return ans
+	}
+	for k := 1; k < len(points); k++ {
+		pt := points[k]
 		if pt.Err != nil {
-			res.Warnings = append(res.Warnings, fmt.Sprintf("at %g cycles: %v", pt.Cycles, pt.Err))
-			res.MaxCycles = res.Points[k-1].Cycles
-			return res, nil
+			ans.warnings = append(ans.warnings, fmt.Sprintf("at %g cycles: %v", pt.Cycles, pt.Err))
+			ans.max, ans.err = points[k-1].Cycles, pt.Err
+			return ans
 		}
 		w, which, _ := excess(pt)
 		if w <= 0 {
 			continue
 		}
-		lo, hi := res.Points[k-1].Cycles, pt.Cycles
+		lo, hi := points[k-1].Cycles, pt.Cycles
 		n, err := findRoot(func(n float64) (float64, error) {
 			p := eval(n)
 			if p.Err != nil {
@@ -276,15 +385,13 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 		}, lo, hi, 1e-4)
 		if err != nil {
 			n = lo
-			res.Warnings = append(res.Warnings, fmt.Sprintf("the crossing between %g and %g cycles was not refined: %v", lo, hi, err))
+			ans.warnings = append(ans.warnings, fmt.Sprintf("the crossing between %g and %g cycles was not refined: %v", lo, hi, err))
 		}
-		crossing := eval(n + 1e-3)
-		if crossing.Err == nil {
+		if crossing := eval(n + 1e-3); crossing.Err == nil {
 			_, which, _ = excess(crossing)
 		}
-		res.MaxCycles, res.Limiting = n, which
-		return res, nil
+		ans.max, ans.limiting = n, which
+		return ans
 	}
-	res.Warnings = append(res.Warnings, fmt.Sprintf("no limit of the %s profile is reached up to %g cycles", profile.Name, maxN))
-	return res, nil
+	return ans
 }

@@ -94,12 +94,21 @@ type DoseResult struct {
 	Reached  bool    // the target value is met by the dose
 	Before   Outcome
 	After    Outcome
-	Warnings []string
+	// SkinAfter is the dosed water judged at the skin temperature (nil
+	// without one); Judged says which temperature governs Dose.
+	SkinAfter *Outcome
+	Judged    Judgement
+	Warnings  []string
 }
 
 // maxDose bounds the dose search, mg/L of product: 10 g/L, far beyond any
 // plant dose.
 const maxDose = 10000
+
+// safeBelow reports whether the target is an upper bound (saturation
+// indices and the Langelier index: more is more scale) rather than a lower
+// one (the Ryznar and Puckorius indices: less is more scale).
+func (t Target) safeBelow() bool { return t.Kind == "si" || t.Kind == "lsi" }
 
 // DoseToTarget finds the dose of reagent r (mg/L of product at strength
 // percent; 0 means the table's usual strength) that brings water a to
@@ -109,6 +118,13 @@ const maxDose = 10000
 // index through Before and After. Where the reagent moves the quantity away
 // from the target, or cannot reach it below 10 g/L, Reached is false and a
 // warning says why.
+//
+// With opt.Skin above the water's temperature, an index or saturation
+// target is also judged at the skin (bulk pH held, as in MaxCycles): the
+// dose is the one after which the water is on the safe side of the target
+// at both temperatures (at or below an SI or LSI target, at or above an
+// RSI or PSI target), and Judged says which temperature governs. A pH
+// target is a bulk set point and is judged at the bulk only.
 func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Target, opt Options) (*DoseResult, error) {
 	sp := NewSpeciator(opt.Model)
 	base, _, err := sp.Fix(a, opt)
@@ -118,57 +134,139 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 	if strength == 0 {
 		strength = r.Strength
 	}
-	res := &DoseResult{Reagent: r, Strength: strength, Target: target}
-	eval := func(d float64) (Outcome, float64, error) {
+	bulkT := a.Temperature
+	if opt.AtTemperature {
+		bulkT = opt.Temperature
+	}
+	skin := skinOf(bulkT, opt)
+	if target.Kind == "ph" {
+		skin = math.NaN()
+	}
+	res := &DoseResult{Reagent: r, Strength: strength, Target: target,
+		Judged: Judgement{Bulk: bulkT, Skin: skin, AtSkin: math.NaN(), Governing: bulkT}}
+	dosed := func(d float64) (Outcome, error) {
 		w, err := base.Dose(r, d, strength)
 		if err != nil {
-			return Outcome{}, 0, err
+			return Outcome{}, err
 		}
 		rr, err := sp.Speciate(w, opt)
 		if err != nil {
-			return Outcome{}, 0, err
+			return Outcome{}, err
 		}
 		ix, _ := sp.ClassicIndicesNoCCPP(rr)
-		v, ok := target.Measure(rr, ix)
-		if !ok {
-			return Outcome{}, 0, fmt.Errorf("%w: %s cannot be evaluated for this water (see the warnings of assess)", ErrInconsistent, target.Kind)
-		}
-		return Outcome{Water: w, Result: rr, Indices: ix}, v - target.Value, nil
+		return Outcome{Water: w, Result: rr, Indices: ix}, nil
 	}
-	before, f0, err := eval(0)
+	gap := func(o Outcome) (float64, error) {
+		v, ok := target.Measure(o.Result, o.Indices)
+		if !ok {
+			return 0, fmt.Errorf("%w: %s cannot be evaluated for this water (see the warnings of assess)", ErrInconsistent, target.Kind)
+		}
+		return v - target.Value, nil
+	}
+	atBulk := func(d float64) (Outcome, float64, error) {
+		o, err := dosed(d)
+		if err != nil {
+			return Outcome{}, 0, err
+		}
+		f, err := gap(o)
+		return o, f, err
+	}
+	atSkin := func(d float64) (Outcome, float64, error) {
+		o, err := dosed(d)
+		if err != nil {
+			return Outcome{}, 0, err
+		}
+		hr, hix, err := sp.heat(o.Result, skin, opt)
+		if err != nil {
+			return Outcome{}, 0, err
+		}
+		h := Outcome{Water: o.Water, Result: hr, Indices: hix}
+		f, err := gap(h)
+		return h, f, err
+	}
+	bulk, err := searchDose(atBulk, r, target)
 	if err != nil {
 		return nil, err
 	}
-	res.Before = before
-	if f0 == 0 {
-		res.Reached, res.After = true, before
+	res.Before = bulk.before
+	pick := bulk
+	res.Judged.AtBulk = bulk.dose
+	if !math.IsNaN(skin) {
+		hot, err := searchDose(atSkin, r, target)
+		if err != nil {
+			return nil, err
+		}
+		res.Judged.AtSkin = hot.dose
+		if stricterDose(target, bulk, hot, atBulk, atSkin) {
+			pick, res.Judged.Governing = hot, skin
+		}
+	}
+	res.Dose, res.Reached = pick.dose, pick.reached
+	res.Warnings = append(res.Warnings, pick.warnings...)
+	if !pick.reached {
+		res.After = res.Before
 		return res, nil
+	}
+	after, _, err := atBulk(pick.dose)
+	if err != nil {
+		return nil, err
+	}
+	res.After = after
+	if !math.IsNaN(skin) {
+		h, _, err := atSkin(pick.dose)
+		if err != nil {
+			return nil, err
+		}
+		res.SkinAfter = &h
+	}
+	res.Warnings = append(res.Warnings, after.Water.Warnings...)
+	res.Warnings = append(res.Warnings, sideEffects(res.Before, after)...)
+	return res, nil
+}
+
+// doseAnswer is the dose that reaches a target judged at one temperature.
+type doseAnswer struct {
+	dose     float64
+	reached  bool
+	before   Outcome
+	gap0     float64 // the target's value minus the target, undosed
+	warnings []string
+}
+
+// searchDose finds the dose where gap (the target's value minus the
+// target, judged at one temperature) crosses zero.
+func searchDose(eval func(float64) (Outcome, float64, error), r water.Reagent, target Target) (doseAnswer, error) {
+	before, f0, err := eval(0)
+	if err != nil {
+		return doseAnswer{}, err
+	}
+	ans := doseAnswer{before: before, gap0: f0}
+	if f0 == 0 {
+		ans.reached = true
+		return ans, nil
 	}
 	// Which way does the reagent move the quantity?
 	_, f1, err := eval(1)
 	if err != nil {
-		return nil, err
+		return doseAnswer{}, err
 	}
 	if (f1-f0)*f0 >= 0 {
-		res.After = before
-		res.Warnings = append(res.Warnings, fmt.Sprintf(
+		ans.warnings = append(ans.warnings, fmt.Sprintf(
 			"%s is already beyond the target in the direction %s moves it (now %.3g, target %g): no dose is needed, and none reaches the target exactly",
 			target.Kind, r.Name, f0+target.Value, target.Value))
-		return res, nil
+		return ans, nil
 	}
 	lo, hi := 0.0, 1.0
 	fhi := f1
 	for (fhi > 0) == (f0 > 0) {
 		lo, hi = hi, hi*2
 		if hi > maxDose {
-			res.After = before
-			res.Warnings = append(res.Warnings, fmt.Sprintf("the target %s is not reached below %g mg/L of %s", target, float64(maxDose), r.Name))
-			return res, nil
+			ans.warnings = append(ans.warnings, fmt.Sprintf("the target %s is not reached below %g mg/L of %s", target, float64(maxDose), r.Name))
+			return ans, nil
 		}
 		if _, fhi, err = eval(hi); err != nil {
-			res.Warnings = append(res.Warnings, fmt.Sprintf("the search stopped at %g mg/L: %v", hi, err))
-			res.After = before
-			return res, nil
+			ans.warnings = append(ans.warnings, fmt.Sprintf("the search stopped at %g mg/L: %v", hi, err))
+			return ans, nil
 		}
 	}
 	d, err := findRoot(func(d float64) (float64, error) {
@@ -176,16 +274,44 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 		return v, err
 	}, lo, hi, 1e-6)
 	if err != nil {
-		return nil, err
+		return doseAnswer{}, err
 	}
-	after, _, err := eval(d)
-	if err != nil {
-		return nil, err
+	ans.dose, ans.reached = d, true
+	return ans, nil
+}
+
+// stricterDose reports whether the skin's dose, rather than the bulk's,
+// is the decision: the dose after which the water is on the safe side of
+// the target at both temperatures, the smaller such dose when both are.
+//
+// Where the target is not reached at one temperature, that temperature
+// governs when its undosed water is on the unsafe side (the decision is
+// then that no dose reaches the target), and the other one when it is
+// already safe there.
+func stricterDose(t Target, bulk, hot doseAnswer, atBulk, atSkin func(float64) (Outcome, float64, error)) bool {
+	safe := func(f float64) bool {
+		if t.safeBelow() {
+			return f <= 1e-9
+		}
+		return f >= -1e-9
 	}
-	res.Dose, res.Reached, res.After = d, true, after
-	res.Warnings = append(res.Warnings, after.Water.Warnings...)
-	res.Warnings = append(res.Warnings, sideEffects(before, after)...)
-	return res, nil
+	switch {
+	case !hot.reached:
+		return !safe(hot.gap0)
+	case !bulk.reached:
+		return safe(bulk.gap0)
+	}
+	_, fSkinAtBulkDose, err1 := atSkin(bulk.dose)
+	_, fBulkAtSkinDose, err2 := atBulk(hot.dose)
+	bulkOK := err1 == nil && safe(fSkinAtBulkDose)
+	hotOK := err2 == nil && safe(fBulkAtSkinDose)
+	switch {
+	case bulkOK && hotOK:
+		return hot.dose < bulk.dose
+	case hotOK:
+		return true
+	}
+	return false
 }
 
 // sideEffects names the minerals a dose pushes across a band edge and the

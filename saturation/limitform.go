@@ -58,7 +58,7 @@ func (f form) mgPerL(a water.Analysis) (float64, bool) {
 		return 0, false
 	}
 	if f.asCaCO3 {
-		return molPerL / f.analyte.PerForm * math.Abs(f.analyte.Charge) * water.EquivalentMassCaCO3 * 1000, true
+		return water.AsCaCO3(molPerL / f.analyte.PerForm * math.Abs(f.analyte.Charge)), true
 	}
 	return molPerL * f.analyte.FormMass / f.analyte.PerForm * 1000, true
 }

@@ -101,3 +101,89 @@ func TestMagnesiumSilicateRule(t *testing.T) {
 		}
 	}
 }
+
+// kestrelWell is an invented 14 °C well makeup of the Kestrel Fen plant.
+const kestrelWell = "name,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3],SiO2 [mg/L]\n" +
+	"Kestrel Fen well 4,14,7.6,78,19,28,36,52,196,16\n"
+
+// TestCyclesSkinGoverns: calcite is less soluble hot (Plummer & Busenberg
+// 1982: log Ksp falls with temperature), so a 14 °C well makeup allows
+// fewer cycles when its tower water is also judged at a 60 °C tube wall
+// (the water heated closed). The skin answer is the decision and is
+// reported as governing; the bulk answer is kept beside it.
+func TestCyclesSkinGoverns(t *testing.T) {
+	w := plantWaters(t, kestrelWell)["Kestrel Fen well 4"]
+	profile, _ := LimitProfileNamed("inhibitor")
+	rule, _ := ParseCarbonateRule("natural")
+	bulk, err := MaxCycles(w, profile, rule, 10, 0.5, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	hot, err := MaxCycles(w, profile, rule, 10, 0.5, Options{Skin: 60})
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("bulk %.2f (%s), with a 60 °C skin %.2f (%s), judged %+v", bulk.MaxCycles, bulk.Limiting, hot.MaxCycles, hot.Limiting, hot.Judged)
+	if !(hot.MaxCycles < bulk.MaxCycles-0.1) {
+		t.Errorf("cycles with a 60 °C skin %.2f, want below the bulk answer %.2f", hot.MaxCycles, bulk.MaxCycles)
+	}
+	if !hot.Judged.SkinGoverns() || hot.Judged.Governing != 60 || hot.Judged.Bulk != 14 {
+		t.Errorf("judged %+v: want the 60 °C skin governing over the 14 °C bulk", hot.Judged)
+	}
+	if math.Abs(hot.Judged.AtBulk-bulk.MaxCycles) > 1e-9 || math.Abs(hot.Judged.AtSkin-hot.MaxCycles) > 1e-9 {
+		t.Errorf("judged %+v: the answers at each temperature should be %.4f (bulk) and %.4f (skin)", hot.Judged, bulk.MaxCycles, hot.MaxCycles)
+	}
+	if bulk.Judged.SkinGoverns() || !math.IsNaN(bulk.Judged.Skin) {
+		t.Errorf("without a skin the bulk governs: %+v", bulk.Judged)
+	}
+	// A skin no hotter than the water is no second judgement.
+	cold, err := MaxCycles(w, profile, rule, 10, 0.5, Options{Skin: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if cold.MaxCycles != bulk.MaxCycles || cold.Judged.SkinGoverns() {
+		t.Errorf("a 10 °C skin under 14 °C water changed the answer: %.3f, %+v", cold.MaxCycles, cold.Judged)
+	}
+}
+
+// kestrelTower is an invented 30 °C recirculating water of the Kestrel
+// Fen plant (tower 2), about five cycles of well 4.
+const kestrelTower = "name,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3],SiO2 [mg/L]\n" +
+	"Kestrel Fen tower 2,30,8.4,300,95,140,180,260,420,78\n"
+
+// TestDoseSkinGoverns: sulfuric acid to a Langelier index of 0.5 needs
+// more acid when the index is also judged at a 60 °C tube wall (the
+// saturation pH falls with temperature: Standard Methods 2330's pHs,
+// common practice), so the skin governs and both doses are reported; a pH
+// target is a bulk set point and is judged at the bulk only.
+func TestDoseSkinGoverns(t *testing.T) {
+	w := plantWaters(t, kestrelTower)["Kestrel Fen tower 2"]
+	acid := mustReagent(t, "h2so4")
+	lsi, _ := ParseTarget("lsi=0.5", nil)
+	bulk, err := DoseToTarget(w, acid, 0, lsi, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	hot, err := DoseToTarget(w, acid, 0, lsi, Options{Skin: 60})
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("bulk %.1f mg/L, with a 60 °C skin %.1f mg/L, judged %+v", bulk.Dose, hot.Dose, hot.Judged)
+	if !bulk.Reached || !hot.Reached || !(hot.Dose > bulk.Dose+1) {
+		t.Fatalf("doses %.2f (bulk) and %.2f (skin): want both reached and the skin's larger", bulk.Dose, hot.Dose)
+	}
+	if !hot.Judged.SkinGoverns() || math.Abs(hot.Judged.AtBulk-bulk.Dose) > 1e-6 || hot.SkinAfter == nil {
+		t.Errorf("judged %+v: want the skin governing, the bulk dose %.3f beside it, and the skin state", hot.Judged, bulk.Dose)
+	}
+	if got := hot.SkinAfter.Indices.LSI; math.Abs(got-0.5) > 1e-3 {
+		t.Errorf("LSI at the skin after the dose = %.4f, want 0.5", got)
+	}
+	ph, _ := ParseTarget("ph=7.5", nil)
+	p, err := DoseToTarget(w, acid, 0, ph, Options{Skin: 60})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.Judged.SkinGoverns() || !math.IsNaN(p.Judged.Skin) {
+		t.Errorf("a pH target judged %+v: want the bulk only", p.Judged)
+	}
+}

@@ -59,6 +59,14 @@ type Options struct {
 	LogPCO2   float64
 	// Model is the reduced thermodynamic table; nil means DefaultModel.
 	Model *Model
+	// Skin is the hottest surface the water meets, °C (a heat-exchanger
+	// tube wall). The decisions (MaxCycles, DoseToTarget, the limits) are
+	// judged at the temperature of evaluation and, when Skin is above it,
+	// at Skin too, with the bulk pH held (the classic skin-temperature
+	// index; common practice); the stricter answer is the
+	// decision. 0 judges at the temperature of evaluation only; a
+	// speciation ignores it.
+	Skin float64
 }
 
 // KgPerDay converts mg/L of a flow of m³/h to kg/day: mg/L × m³/h × 24 h/d
