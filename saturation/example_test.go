@@ -64,7 +64,7 @@ func ExampleDoseToTarget() {
 	after, _ := d.After.Result.SI("gypsum")
 	fmt.Printf("%.1f mg/L of %g %% sulfuric acid; gypsum SI %+.3f → %+.3f\n", d.Dose, d.Strength, before, after)
 	// Output:
-	// 26.8 mg/L of 93 % sulfuric acid; gypsum SI -0.967 → -0.938
+	// 26.8 mg/L of 93 % sulfuric acid; gypsum SI -0.965 → -0.937
 }
 
 func ExampleMaxCycles() {
