@@ -40,7 +40,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions())
+			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
 			return stream(r, src, w, batch[saturation.Assessment]{
 				newWorker: func() func(string, water.Record) (saturation.Assessment, error) {
 					sp := saturation.NewSpeciator(opt.Model)

@@ -26,6 +26,7 @@ type commonFlags struct {
 	demo           bool
 	flow           float64
 	jobs           int
+	indent         bool
 }
 
 // register adds the shared flags to cmd.
@@ -38,6 +39,7 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 	f.StringVar(&c.belowDetection, "below-detection", "half", "value for \"<x\" results: half (x/2), zero or limit (x)")
 	f.BoolVar(&c.demo, "demo", false, "use the embedded demo waters of a fictional plant")
 	f.Float64Var(&c.flow, "flow", 0, "flow of the water, m³/h, to give scale and doses in kg/day")
+	f.BoolVar(&c.indent, "indent", false, "indent JSON, one key per line (the default when writing to a terminal; compact otherwise)")
 	f.IntVar(&c.jobs, "jobs", runtime.NumCPU(), "samples computed at once (workers); the output is the same for any number")
 }
 
@@ -80,9 +82,10 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	return format, opt, water.ReadOptions{Detection: policy}, nil
 }
 
-// writeOptions are the options of the sample writers.
-func (c *commonFlags) writeOptions() reports.WriteOptions {
-	return reports.WriteOptions{Indent: true}
+// writeOptions are the options of the sample writers: JSON indented with
+// --indent or when written to a terminal, compact otherwise.
+func (c *commonFlags) writeOptions(cmd *cobra.Command) reports.WriteOptions {
+	return reports.WriteOptions{Indent: c.indent || isTerminal(cmd.OutOrStdout())}
 }
 
 // mineralNames lists the minerals of model (nil: the default) in table
@@ -120,7 +123,8 @@ func (c *commonFlags) runner(cmd *cobra.Command, args []string, stdin io.Reader,
 		return nil, nil, badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
 	}
 	r := &runner{stdin: stdin, stderr: cmd.ErrOrStderr(), jobs: c.jobs}
-	return r, items(inputs, stdin, ropt), nil
+	r.progress = newProgress(r.stderr, inputSize(inputs))
+	return r, r.items(inputs, ropt), nil
 }
 
 // demoName is the file name the embedded demo waters carry in output.
@@ -133,47 +137,43 @@ type input struct {
 	embedded bool
 }
 
-// readInput reads one input.
-func readInput(in input, stdin io.Reader, opt water.ReadOptions) ([]water.Record, []error, error) {
-	name := in.name
-	var r io.Reader
+// open opens one input; the caller closes it.
+func open(in input, stdin io.Reader) (io.ReadCloser, error) {
 	switch {
 	case in.embedded:
-		f, err := water.OpenDemo()
-		if err != nil {
-			return nil, nil, err
-		}
-		defer f.Close()
-		r = f
-	case name == "-":
-		r = stdin
-	default:
-		f, err := os.Open(name)
-		if err != nil {
-			return nil, nil, &water.InputError{File: name, Err: errors.Unwrap(err)}
-		}
-		defer f.Close()
-		r = f
+		return water.OpenDemo()
+	case in.name == "-":
+		return io.NopCloser(stdin), nil
 	}
-	return water.Read(name, r, opt)
+	f, err := os.Open(in.name)
+	if err != nil {
+		return nil, &water.InputError{File: in.name, Err: errors.Unwrap(err)}
+	}
+	return f, nil
 }
 
-// records yields the records of one input one at a time, and its file
-// problems (the fatal one, if any, last).
-func records(in input, stdin io.Reader, opt water.ReadOptions) iter.Seq2[water.Record, error] {
+// readInput reads the whole of one input.
+func readInput(in input, stdin io.Reader, opt water.ReadOptions) ([]water.Record, []error, error) {
+	r, err := open(in, stdin)
+	if err != nil {
+		return nil, nil, err
+	}
+	defer r.Close()
+	return water.Read(in.name, r, opt)
+}
+
+// records yields the records of one input one at a time as they are read,
+// and its file problems (a fatal one last).
+func records(in input, stdin io.Reader, opt water.ReadOptions, p *progress) iter.Seq2[water.Record, error] {
 	return func(yield func(water.Record, error) bool) {
-		recs, probs, err := readInput(in, stdin, opt)
+		r, err := open(in, stdin)
 		if err != nil {
 			yield(water.Record{}, err)
 			return
 		}
-		for _, p := range probs {
-			if !yield(water.Record{}, p) {
-				return
-			}
-		}
-		for _, rec := range recs {
-			if !yield(rec, nil) {
+		defer r.Close()
+		for rec, err := range water.Records(in.name, p.reader(r), opt) {
+			if !yield(rec, err) {
 				return
 			}
 		}

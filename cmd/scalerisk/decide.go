@@ -56,7 +56,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			w := reports.NewDoseWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			w := reports.NewDoseWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.DoseOutcome]{
 				newWorker: func() func(string, water.Record) (reports.DoseOutcome, error) {
 					return func(_ string, rec water.Record) (reports.DoseOutcome, error) {
@@ -136,7 +136,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			w := reports.NewCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			w := reports.NewCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.CyclesOutcome]{
 				newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
 					return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
@@ -248,7 +248,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			w := reports.NewSweepWriter(cmd.OutOrStdout(), format, c.writeOptions())
+			w := reports.NewSweepWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.SweepOutcome]{
 				newWorker: func() func(string, water.Record) (reports.SweepOutcome, error) {
 					return func(_ string, rec water.Record) (reports.SweepOutcome, error) {
@@ -382,7 +382,7 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 			}
 			as := saturation.AssessAnalysis(blend, opt)
 			as.Flow = c.flow
-			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions())
+			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
 			if err := w.WriteAll(as); err != nil {
 				return &exitError{code: exitInternal, err: err}
 			}

@@ -233,6 +233,9 @@ func TestGolden(t *testing.T) {
 	for _, format := range []string{"text", "csv", "json"} {
 		t.Run(format, func(t *testing.T) {
 			args := []string{"assess", "--demo", "--format", format}
+			if format == "json" {
+				args = append(args, "--indent") // one key per line: readable diffs
+			}
 			first := mustRun(t, exitOK, "", args...).stdout
 			second := mustRun(t, exitOK, "", args...).stdout
 			if first != second {

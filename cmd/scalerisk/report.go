@@ -59,9 +59,12 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },
 	}
 	o.common.register(cmd)
-	// The report is HTML; the shared --format flag does not apply.
-	if err := cmd.Flags().MarkHidden("format"); err != nil {
-		panic(err)
+	// The report is HTML; the shared --format and --indent flags do not
+	// apply.
+	for _, name := range []string{"format", "indent"} {
+		if err := cmd.Flags().MarkHidden(name); err != nil {
+			panic(err)
+		}
 	}
 	f := cmd.Flags()
 	f.StringVarP(&o.output, "output", "o", "report.html", "the HTML file to write (- for standard output)")

@@ -21,12 +21,14 @@ type runner struct {
 	stdin    io.Reader
 	stderr   io.Writer
 	jobs     int
-	problems int // bad input: file problems, bad rows, inconsistent analyses
-	failures int // samples that could not be computed
+	progress *progress // nil when standard error is not a terminal
+	problems int       // bad input: file problems, bad rows, inconsistent analyses
+	failures int       // samples that could not be computed
 }
 
 // problem reports a fault of the input on stderr and counts it.
 func (r *runner) problem(err error) {
+	r.progress.clear()
 	fmt.Fprintln(r.stderr, err)
 	r.problems++
 }
@@ -35,6 +37,7 @@ func (r *runner) problem(err error) {
 // naming its file and line, and counts it: an inconsistent analysis as bad
 // input, any other as a failure.
 func (r *runner) sampleError(file string, line int, err error) {
+	r.progress.clear()
 	fmt.Fprintf(r.stderr, "%s:%d: %v\n", file, line, err)
 	if errors.Is(err, saturation.ErrInconsistent) {
 		r.problems++
@@ -46,6 +49,7 @@ func (r *runner) sampleError(file string, line int, err error) {
 // exit maps the tally to the command's error: exit status 2 for bad input,
 // else 1 for failures, else success (nil). The messages have been printed.
 func (r *runner) exit() error {
+	r.progress.clear()
 	switch {
 	case r.problems > 0:
 		return &exitError{code: exitBadInput, err: fmt.Errorf("%d input problem(s)", r.problems), quiet: true}
@@ -64,11 +68,12 @@ type item struct {
 	problem error
 }
 
-// items yields everything read from the inputs, one at a time, in order.
-func items(inputs []input, stdin io.Reader, ropt water.ReadOptions) iter.Seq[item] {
+// items yields everything read from the inputs, one at a time, in order,
+// counting the bytes read for the progress line.
+func (r *runner) items(inputs []input, ropt water.ReadOptions) iter.Seq[item] {
 	return func(yield func(item) bool) {
 		for _, in := range inputs {
-			for rec, err := range records(in, stdin, ropt) {
+			for rec, err := range records(in, r.stdin, ropt, r.progress) {
 				if !yield(item{file: in.name, rec: rec, problem: err}) {
 					return
 				}
@@ -163,6 +168,7 @@ func runBatch[T any](r *runner, src iter.Seq[item], b batch[T]) error {
 			if err := emit(r, p, b); err != nil {
 				return err
 			}
+			r.progress.done()
 		}
 	}
 	return nil
