@@ -99,6 +99,10 @@ type DoseResult struct {
 	SkinAfter *Outcome
 	Judged    Judgement
 	Warnings  []string
+	// Beyond reports that the water is already at or beyond the target in
+	// the direction the reagent moves it: no dose is needed (Reached is
+	// false, Dose 0).
+	Beyond bool
 }
 
 // maxDose bounds the dose search, mg/L of product: 10 g/L, far beyond any
@@ -201,7 +205,7 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 			pick, res.Judged.Governing = hot, skin
 		}
 	}
-	res.Dose, res.Reached = pick.dose, pick.reached
+	res.Dose, res.Reached, res.Beyond = pick.dose, pick.reached, pick.beyond
 	res.Warnings = append(res.Warnings, pick.warnings...)
 	if !pick.reached {
 		res.After = res.Before
@@ -228,6 +232,7 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 type doseAnswer struct {
 	dose     float64
 	reached  bool
+	beyond   bool // already beyond the target in the reagent's direction
 	before   Outcome
 	gap0     float64 // the target's value minus the target, undosed
 	warnings []string
@@ -251,6 +256,7 @@ func searchDose(eval func(float64) (Outcome, float64, error), r water.Reagent, t
 		return doseAnswer{}, err
 	}
 	if (f1-f0)*f0 >= 0 {
+		ans.beyond = true
 		ans.warnings = append(ans.warnings, fmt.Sprintf(
 			"%s is already beyond the target in the direction %s moves it (now %.3g, target %g): no dose is needed, and none reaches the target exactly",
 			target.Kind, r.Name, f0+target.Value, target.Value))

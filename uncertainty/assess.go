@@ -134,16 +134,9 @@ func Assess(central saturation.Assessment, opt saturation.Options, s Settings) (
 	}
 	sum := &Summary{Run: runOf(smp, s), LimitProfile: limits.Name}
 	sens := sensitivities(smp)
-	column := func(o int) []float64 {
-		col := make([]float64, len(smp.out))
-		for i := range smp.out {
-			col[i] = smp.out[i][o]
-		}
-		return col
-	}
 	conf := s.confidence()
 	for i, m := range minerals {
-		col := column(i)
+		col := column(smp, i)
 		q := Quantity{Name: m.Name, Mineral: true, Central: m.SI, PPositive: above(col, 0),
 			Limit: math.NaN(), PAboveLimit: math.NaN(), Sensitivity: sens[i]}
 		q.Interval, _ = interval(col, conf)
@@ -160,12 +153,12 @@ func Assess(central saturation.Assessment, opt saturation.Options, s Settings) (
 		o := len(minerals) + i
 		q := Quantity{Name: io.key, Central: io.get(*ix), PPositive: math.NaN(), Limit: math.NaN(),
 			PAboveLimit: math.NaN(), Sensitivity: sens[o]}
-		q.Interval, _ = interval(column(o), conf)
+		q.Interval, _ = interval(column(smp, o), conf)
 		sum.Quantities = append(sum.Quantities, q)
 	}
 	q := Quantity{Name: "ph", Central: central.Result.PH, PPositive: math.NaN(), Limit: math.NaN(),
 		PAboveLimit: math.NaN(), Sensitivity: sens[nOut-1]}
-	q.Interval, _ = interval(column(nOut-1), conf)
+	q.Interval, _ = interval(column(smp, nOut-1), conf)
 	sum.Quantities = append(sum.Quantities, q)
 	return sum, nil
 }

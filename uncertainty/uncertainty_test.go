@@ -1,7 +1,6 @@
 package uncertainty
 
 import (
-	"bytes"
 	"fmt"
 	"math"
 	"strings"
@@ -10,7 +9,6 @@ import (
 	"gonum.org/v1/gonum/stat"
 	"gonum.org/v1/gonum/stat/distuv"
 
-	"scalerisk/data"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
@@ -202,11 +200,12 @@ func TestMedianErrorShrinks(t *testing.T) {
 // demoWater returns demo water i of data/demo.csv.
 func demoWater(t testing.TB, i int) water.Analysis {
 	t.Helper()
-	b, err := data.FS.ReadFile("demo.csv")
+	f, err := water.OpenDemo()
 	if err != nil {
 		t.Fatal(err)
 	}
-	recs, _, err := water.Read("demo.csv", bytes.NewReader(b), water.ReadOptions{})
+	defer f.Close()
+	recs, _, err := water.Read("demo.csv", f, water.ReadOptions{})
 	if err != nil || recs[i].Err != nil {
 		t.Fatalf("demo water %d: %v", i, err)
 	}
