@@ -2,6 +2,7 @@ package saturation
 
 import (
 	"encoding/csv"
+	"io"
 	"math"
 	"os"
 	"strconv"
@@ -10,40 +11,101 @@ import (
 )
 
 // TestLogKReference compares the table's log K(T) with published values
-// gathered in testdata/logk_reference.csv, each row naming its source.
+// gathered in testdata/logk_reference.csv, each row naming its source and
+// tag (READ, FROM MEMORY, COMPUTED regression, SAME SOURCE: see the file's
+// header). A row that does not parse fails the test. Every entry of the
+// table other than the masters needs a reference row or a line in
+// testdata/logk_gaps.csv saying why it has none.
 func TestLogKReference(t *testing.T) {
-	f, err := os.Open("../testdata/logk_reference.csv")
+	rows := readTestCSV(t, "../testdata/logk_reference.csv", []string{"name", "t_c", "log_k", "tolerance", "source"})
+	table := DefaultTable()
+	checked := map[string]bool{}
+	for _, row := range rows {
+		name, source := row.cells[0], row.cells[4]
+		var v [3]float64
+		for k := range v {
+			x, err := strconv.ParseFloat(row.cells[k+1], 64)
+			if err != nil {
+				t.Fatalf("logk_reference.csv:%d: column %d: %v", row.line, k+2, err)
+			}
+			v[k] = x
+		}
+		tc, want, tol := v[0], v[1], v[2]
+		if !(tol > 0) || strings.TrimSpace(source) == "" {
+			t.Errorf("logk_reference.csv:%d: %s needs a positive tolerance and a source", row.line, name)
+		}
+		e, ok := table.Entry(name)
+		if !ok {
+			t.Errorf("logk_reference.csv:%d: %s is not in the table", row.line, name)
+			continue
+		}
+		if got := e.LogK(tc); !(math.Abs(got-want) <= tol) {
+			t.Errorf("log K(%s, %g °C) = %.4f, want %.4f ± %g (%s)", name, tc, got, want, tol, source)
+		}
+		checked[name] = true
+	}
+	gaps := map[string]bool{}
+	for _, row := range readTestCSV(t, "../testdata/logk_gaps.csv", []string{"name", "reason"}) {
+		name := row.cells[0]
+		if _, ok := table.Entry(name); !ok {
+			t.Errorf("logk_gaps.csv:%d: %s is not in the table", row.line, name)
+		}
+		if checked[name] {
+			t.Errorf("logk_gaps.csv:%d: %s has a reference row now; remove it from the gaps", row.line, name)
+		}
+		if strings.TrimSpace(row.cells[1]) == "" {
+			t.Errorf("logk_gaps.csv:%d: %s needs a reason", row.line, name)
+		}
+		gaps[name] = true
+	}
+	for _, e := range table.Entries() {
+		if e.Phase != Master && !checked[e.Name] && !gaps[e.Name] {
+			t.Errorf("%s (data/thermo.csv line %d) has no row in testdata/logk_reference.csv and is not listed in testdata/logk_gaps.csv", e.Name, e.Line)
+		}
+	}
+	if len(checked) < 60 {
+		t.Errorf("only %d entries checked against a reference, want at least 60", len(checked))
+	}
+}
+
+// csvRow is one data row of a test CSV file with its line number.
+type csvRow struct {
+	line  int
+	cells []string
+}
+
+// readTestCSV reads a CSV test file (lines starting with # are comments)
+// whose header must be header; a malformed file fails the test.
+func readTestCSV(t *testing.T, path string, header []string) []csvRow {
+	t.Helper()
+	f, err := os.Open(path)
 	if err != nil {
 		t.Fatal(err)
 	}
 	defer f.Close()
 	r := csv.NewReader(f)
 	r.Comment = '#'
-	rows, err := r.ReadAll()
+	r.FieldsPerRecord = len(header)
+	first, err := r.Read()
 	if err != nil {
-		t.Fatal(err)
+		t.Fatalf("%s: %v", path, err)
 	}
-	table := DefaultTable()
-	n := 0
-	for _, row := range rows[1:] {
-		name, source := row[0], row[4]
-		tc, _ := strconv.ParseFloat(row[1], 64)
-		want, _ := strconv.ParseFloat(row[2], 64)
-		tol, _ := strconv.ParseFloat(row[3], 64)
-		e, ok := table.Entry(name)
-		if !ok {
-			t.Errorf("reference row for %s: not in the table", name)
-			continue
+	if strings.Join(first, ",") != strings.Join(header, ",") {
+		t.Fatalf("%s: header %q, want %q", path, first, header)
+	}
+	var rows []csvRow
+	for {
+		rec, err := r.Read()
+		if err == io.EOF {
+			break
 		}
-		got := e.LogK(tc)
-		if math.Abs(got-want) > tol {
-			t.Errorf("log K(%s, %g °C) = %.4f, want %.4f ± %g (%s)", name, tc, got, want, tol, source)
+		if err != nil {
+			t.Fatalf("%s: %v", path, err)
 		}
-		n++
+		line, _ := r.FieldPos(0)
+		rows = append(rows, csvRow{line: line, cells: rec})
 	}
-	if n < 40 {
-		t.Errorf("only %d reference values checked, want at least 40", n)
-	}
+	return rows
 }
 
 // TestAnalyticMatches25 checks every row with a temperature function against
