@@ -21,17 +21,18 @@ func outcomeSample(name string, o saturation.Outcome) SampleJSON {
 // DoseJSON is one sample of the JSON output of dose. The key names are a
 // contract: extend, never rename.
 type DoseJSON struct {
-	Name            string      `json:"name"`
-	Reagent         string      `json:"reagent"`
-	StrengthPercent float64     `json:"strength_percent"`
-	Target          string      `json:"target"`
-	DoseMgPerL      float64     `json:"dose_mg_per_l"`
-	DoseKgPerDay    *float64    `json:"dose_kg_per_day,omitempty"`
-	Reached         bool        `json:"reached"`
-	Before          *SampleJSON `json:"before,omitempty"`
-	After           *SampleJSON `json:"after,omitempty"`
-	Warnings        []string    `json:"warnings"`
-	Error           *string     `json:"error"`
+	Name            string   `json:"name"`
+	Reagent         string   `json:"reagent"`
+	StrengthPercent float64  `json:"strength_percent"`
+	Target          string   `json:"target"`
+	DoseMgPerL      float64  `json:"dose_mg_per_l"`
+	DoseKgPerDay    *float64 `json:"dose_kg_per_day,omitempty"`
+	Reached         bool     `json:"reached"`
+	JudgementJSON
+	Before   *SampleJSON `json:"before,omitempty"`
+	After    *SampleJSON `json:"after,omitempty"`
+	Warnings []string    `json:"warnings"`
+	Error    *string     `json:"error"`
 }
 
 // DoseOutcome is the dose answer for one sample, or why there is none.
@@ -73,6 +74,7 @@ func doseJSON(d DoseOutcome) DoseJSON {
 	if d.Flow > 0 {
 		j.DoseKgPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow), func(x float64) float64 { return sig(x, 4) })
 	}
+	j.JudgementJSON = judgementJSON(r.Judged, "dose")
 	before, after := outcomeSample(d.Name, r.Before), outcomeSample(d.Name, r.After)
 	j.Before, j.After = &before, &after
 	j.Warnings = append(j.Warnings, r.Warnings...)
@@ -100,6 +102,9 @@ func writeDoseText(b *strings.Builder, d DoseOutcome) {
 	r := d.Result
 	if r.Reached {
 		fmt.Fprintf(b, "%s: %.4g mg/L of %s (%g %%) brings %s to %g", d.Name, r.Dose, r.Reagent.Name, r.Strength, targetWords(r.Target), r.Target.Value)
+		if r.Judged.SkinGoverns() {
+			fmt.Fprintf(b, " at the %g °C skin", r.Judged.Skin)
+		}
 		if d.Flow > 0 {
 			fmt.Fprintf(b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
 		}
@@ -109,6 +114,7 @@ func writeDoseText(b *strings.Builder, d DoseOutcome) {
 	} else {
 		fmt.Fprintf(b, "%s: %s does not reach %s.\n", d.Name, r.Reagent.Name, r.Target)
 	}
+	writeJudgement(b, r.Judged, func(v float64) string { return fmt.Sprintf("%.4g mg/L", v) })
 	writeOutcomeChange(b, r.Before, r.After)
 	notes := r.Warnings
 	if !r.Reached && len(notes) > 0 {
@@ -177,12 +183,13 @@ func writeOutcomeChange(b *strings.Builder, before, after saturation.Outcome) {
 
 // CyclesJSON is one sample of the JSON output of cycles.
 type CyclesJSON struct {
-	Name            string            `json:"name"`
-	Profile         string            `json:"profile"`
-	Carbonate       string            `json:"carbonate"`
-	MaxCycles       float64           `json:"max_cycles"`
-	Limiting        string            `json:"limiting"`
-	Exceeded        []string          `json:"exceeded,omitempty"`
+	Name      string   `json:"name"`
+	Profile   string   `json:"profile"`
+	Carbonate string   `json:"carbonate"`
+	MaxCycles float64  `json:"max_cycles"`
+	Limiting  string   `json:"limiting"`
+	Exceeded  []string `json:"exceeded,omitempty"`
+	JudgementJSON
 	MakeupM3PerH    *float64          `json:"makeup_m3_per_h,omitempty"`
 	BlowdownM3PerH  *float64          `json:"blowdown_m3_per_h,omitempty"`
 	Points          []CyclesPointJSON `json:"points"`
@@ -202,16 +209,6 @@ type CyclesPointJSON struct {
 	LSI             *float64           `json:"lsi,omitempty"`
 	Warnings        []string           `json:"warnings,omitempty"`
 	Error           *string            `json:"error,omitempty"`
-}
-
-// cyclesTemperature is the temperature the cycles search evaluated at.
-func cyclesTemperature(r *saturation.CyclesResult) float64 {
-	for _, p := range r.Points {
-		if p.Result != nil {
-			return p.Result.Temperature
-		}
-	}
-	return math.NaN()
 }
 
 // CyclesOutcome is the cycles answer for one sample.
@@ -258,6 +255,7 @@ func cyclesJSON(c CyclesOutcome) CyclesJSON {
 	}
 	r := c.Result
 	j.Profile, j.MaxCycles, j.Limiting, j.Exceeded = r.Profile.Name, dec(r.MaxCycles, 2), r.Limiting, r.Exceeded
+	j.JudgementJSON = judgementJSON(r.Judged, "cycles")
 	if c.Evaporation > 0 && r.MaxCycles > 1 {
 		m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
 		j.MakeupM3PerH = optional(m, func(x float64) float64 { return sig(x, 4) })
@@ -337,8 +335,9 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 	default:
 		l, _ := r.Profile.Lookup(r.Limiting)
 		fmt.Fprintf(b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there.\n",
-			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, cyclesTemperature(r), r.Limiting, l.Max)
+			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Judged.Governing, r.Limiting, l.Max)
 	}
+	writeJudgement(b, r.Judged, func(v float64) string { return fmt.Sprintf("%.2f cycles", v) })
 	if c.Evaporation > 0 && r.MaxCycles > 1 {
 		m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
 		fmt.Fprintf(b, "  At %.3g m³/h evaporation: make-up %.3g m³/h, blowdown %.3g m³/h (drift neglected).\n", c.Evaporation, m, bd)

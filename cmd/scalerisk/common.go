@@ -27,6 +27,7 @@ type commonFlags struct {
 	flow           float64
 	jobs           int
 	indent         bool
+	skin           float64 // --skin-temperature of the commands that decide
 }
 
 // register adds the shared flags to cmd.
@@ -41,6 +42,13 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 	f.Float64Var(&c.flow, "flow", 0, "flow of the water, m³/h, to give scale and doses in kg/day")
 	f.BoolVar(&c.indent, "indent", false, "indent JSON, one key per line (the default when writing to a terminal; compact otherwise)")
 	f.IntVar(&c.jobs, "jobs", runtime.NumCPU(), "samples computed at once (workers); the output is the same for any number")
+}
+
+// registerSkin adds --skin-temperature, the flag every command that decides
+// shares (cycles, dose, report, balance, membrane).
+func (c *commonFlags) registerSkin(cmd *cobra.Command, def float64) {
+	cmd.Flags().Float64Var(&c.skin, "skin-temperature", def,
+		fmt.Sprintf("hottest surface the water meets (a heat-exchanger tube wall), °C: each decision is judged at the bulk and at this temperature (bulk pH held) and the stricter governs; 0 judges at the bulk only (default %g)", def))
 }
 
 // setup turns the shared flags into a format, speciation options and read
@@ -65,6 +73,13 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--jobs %d: want 1 or more workers", c.jobs))
 	}
 	opt := saturation.Options{Activity: activity}
+	if cmd.Flags().Lookup("skin-temperature") != nil {
+		if !(c.skin == 0 || c.skin >= saturation.MinTemperature && c.skin <= saturation.MaxTemperature) {
+			return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--skin-temperature %g is outside %d–%d °C",
+				c.skin, saturation.MinTemperature, saturation.MaxTemperature))
+		}
+		opt.Skin = c.skin
+	}
 	if cmd.Flags().Changed("temperature") {
 		if !(c.temperature >= saturation.MinTemperature && c.temperature <= saturation.MaxTemperature) { // also rejects NaN
 			return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--temperature %g is outside %d–%d °C",

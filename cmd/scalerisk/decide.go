@@ -26,7 +26,10 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			"quantity to a target — ph=7.0, lsi=0.5, rsi=6, psi=6 or si:calcite=0.8 — and shows what\n" +
 			"the dose does to every other mineral and index: the sulfate of sulfuric acid raises gypsum,\n" +
 			"barite and celestite (the common-ion effect); the chloride of hydrochloric acid raises the\n" +
-			"Larson–Skold index. Reagents: " + reagentNames() + ".\n\n" +
+			"Larson–Skold index. Reagents: " + reagentNames() + ".\n" +
+			"An index or SI target is judged at the bulk and at --skin-temperature (default 60 °C, bulk pH\n" +
+			"held): the dose leaves the water on the safe side of the target at both, and the output says\n" +
+			"which temperature governs. A pH target is a bulk set point, judged at the bulk only.\n\n" +
 			reports.DoseCaution,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, opt, ropt, err := c.setup(cmd)
@@ -73,6 +76,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&target, "target", "", "target: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE or si:MINERAL=VALUE")
 	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system after dosing: closed (the CO2 an acid frees stays) or air")
+	c.registerSkin(cmd, reports.DefaultSkinTemperature)
 	cmd.MarkFlagRequired("reagent")
 	cmd.MarkFlagRequired("target")
 	return cmd
@@ -102,7 +106,9 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			"or closed (CO2 stays: a sealed system) — and returns the highest cycles at which every limit of the profile\n" +
 			"holds, naming the limiting mineral. Profiles: no-inhibitor and inhibitor (data/limits.csv,\n" +
 			"each limit with its source), or a CSV of your own (columns quantity, max, source).\n" +
-			"Temperature: the sample's, or --temperature (use the hottest heat-exchanger skin).\n\n" + reports.Caution,
+			"Temperature: the limits are judged at the bulk (the sample's, or --temperature) and at\n" +
+			"--skin-temperature (default 60 °C, a common tube-wall temperature; the bulk pH held, as the\n" +
+			"classic skin index); the stricter answer is given and the output says which governs.\n\n" + reports.Caution,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, opt, ropt, err := c.setup(cmd)
 			if err != nil {
@@ -155,6 +161,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
 	f.Float64Var(&step, "step", 0.5, "step of the cycles table")
 	f.Float64Var(&evaporation, "evaporation", 0, "evaporation of the tower, m³/h, to give make-up and blowdown")
+	c.registerSkin(cmd, reports.DefaultSkinTemperature)
 	return cmd
 }
 

@@ -17,22 +17,21 @@ import (
 
 // reportOptions holds the flags of report beyond the shared ones.
 type reportOptions struct {
-	common          commonFlags
-	output          string
-	title           string
-	client          string
-	date            string
-	skinTemperature float64
-	maxCycles       float64
-	reagent         string
-	strength        float64
-	maxDose         float64
-	target          string
-	limits          string
-	carbonate       string
-	detail          int
-	blendWith       string
-	blendFraction   float64
+	common        commonFlags
+	output        string
+	title         string
+	client        string
+	date          string
+	maxCycles     float64
+	reagent       string
+	strength      float64
+	maxDose       float64
+	target        string
+	limits        string
+	carbonate     string
+	detail        int
+	blendWith     string
+	blendFraction float64
 }
 
 func newReportCmd(stdin io.Reader) *cobra.Command {
@@ -71,8 +70,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&o.title, "title", "", "title of the report (default \""+reports.DefaultReportTitle+"\")")
 	f.StringVar(&o.client, "client", "", "who the report is prepared for, shown under the title")
 	f.StringVar(&o.date, "date", "", "date shown on the report (default today; --date none leaves it out)")
-	f.Float64Var(&o.skinTemperature, "skin-temperature", reports.DefaultSkinTemperature,
-		"end of the temperature axis: the heat-exchanger tube-wall temperature, °C")
+	o.common.registerSkin(cmd, reports.DefaultSkinTemperature) // also the end of the temperature axis
 	f.Float64Var(&o.maxCycles, "max-cycles", reports.DefaultMaxCycles, "end of the cycles axis and of the highest-cycles search")
 	f.StringVar(&o.reagent, "reagent", reports.DefaultReagent, "reagent of the dose chart and the dose to target, by formula: "+reagentNames())
 	f.Float64Var(&o.strength, "strength", 0, "strength of the reagent product, percent (default: the reagent table's usual strength)")
@@ -100,7 +98,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output == "" {
 		return badInput(errors.New("no output file: give -o report.html (or -o - for standard output)"))
 	}
-	hopt := reports.HTMLOptions{Speciation: opt, Detection: ropt.Detection, SkinTemperature: o.skinTemperature,
+	hopt := reports.HTMLOptions{Speciation: opt, Detection: ropt.Detection, SkinTemperature: o.common.skin,
 		MaxCycles: o.maxCycles, Reagent: o.reagent, Strength: o.strength, MaxDose: o.maxDose, Detail: o.detail}
 	if err := hopt.Check(); err != nil {
 		return badInput(err)
