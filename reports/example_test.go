@@ -15,6 +15,10 @@ import (
 // cooling-tower water, assesses it and writes the JSON of assess; a program
 // reading the JSON finds the sample by name and the risk band of each
 // mineral.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleWriteAssessments() {
 	const lab = `name,temperature [C],pH,Ca [mg/L as CaCO3],Mg [mg/L],Na [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3]
 Invented tower basin,35,7.9,400,30,100,150,250,250
@@ -55,6 +59,9 @@ Invented tower basin,35,7.9,400,30,100,150,250,250
 }
 
 // ExampleWriteMinerals lists the embedded thermodynamic table as CSV.
+//
+// The printed values are a regression pin of the program's own output and of
+// the embedded table, not an outside reference.
 func ExampleWriteMinerals() {
 	var buf bytes.Buffer
 	if err := reports.WriteMinerals(&buf, reports.CSV, saturation.DefaultTable()); err != nil {

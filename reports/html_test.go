@@ -500,6 +500,10 @@ func TestWriteHTMLFile(t *testing.T) {
 
 // ExampleWriteHTML writes the report of an invented cooling-tower water
 // and counts its charts.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleWriteHTML() {
 	const lab = `name,date,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],Cl [mg/L],SO4 [mg/L],alkalinity [mg/L as CaCO3],SiO2 [mg/L]
 Invented tower basin,2026-04-01,35,8.1,160,40,120,180,250,220,60

@@ -34,7 +34,7 @@ func TestDebyeHuckelA(t *testing.T) {
 }
 
 // TestActivityCoefficients compares single-ion γ with Kielland's (1937)
-// table (extended Debye–Hückel, 25 °C) [READ, thermo.md §5.3].
+// table (extended Debye–Hückel, 25 °C) [READ, testdata/reference/thermo.md §5.3].
 func TestActivityCoefficients(t *testing.T) {
 	c := newDHConstants(25)
 	tests := []struct {

@@ -21,7 +21,7 @@ func mustReagent(t *testing.T, name string) water.Reagent {
 // reaches it, lowers calcite SI, raises gypsum SI (the common-ion effect of
 // sulfate), and removes alkalinity and adds sulfate in the handbook ratio:
 // 1 mg/L of 100 % H2SO4 removes 1.02 mg/L alkalinity as CaCO3 and adds
-// 0.98 mg/L SO4 ("Power Plant Engineering" Table 15-3 [READ]; practice.md
+// 0.98 mg/L SO4 ("Power Plant Engineering" Table 15-3 [READ]; testdata/reference/practice.md
 // §6, factors 1.0205 and 0.9794 [COMPUTED from molar masses]).
 func TestDoseSulfuricAcid(t *testing.T) {
 	a := coolingWater()
@@ -53,7 +53,7 @@ func TestDoseSulfuricAcid(t *testing.T) {
 		t.Errorf("alkalinity removed per mg/L H2SO4 = %.4f, want 1.02 ± 0.01 (Power Plant Engineering Table 15-3)", dAlk/active)
 	}
 	if math.Abs(dSO4/active-0.9794) > 0.01 {
-		t.Errorf("sulfate added per mg/L H2SO4 = %.4f, want 0.98 ± 0.01 (practice.md §6)", dSO4/active)
+		t.Errorf("sulfate added per mg/L H2SO4 = %.4f, want 0.98 ± 0.01 (testdata/reference/practice.md §6)", dSO4/active)
 	}
 	found := false
 	for _, w := range res.Warnings {

@@ -21,6 +21,11 @@ func towerWater() water.Analysis {
 	return a
 }
 
+// ExampleSpeciate prints results for an invented water.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleSpeciate() {
 	r, err := saturation.Speciate(towerWater(), saturation.Options{})
 	if err != nil {
@@ -35,6 +40,11 @@ func ExampleSpeciate() {
 	// calcite SI +1.11: supersaturated – within inhibitor reach
 }
 
+// ExampleSweep prints results for an invented water.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleSweep() {
 	pts, err := saturation.Sweep(towerWater(), saturation.Axis{Var: saturation.VaryTemperature,
 		Values: []float64{20, 50, 80}}, nil, saturation.Options{})
@@ -52,6 +62,11 @@ func ExampleSweep() {
 	// 80 °C: calcite SI +1.23
 }
 
+// ExampleDoseToTarget prints results for an invented water.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleDoseToTarget() {
 	acid, _ := water.LookupReagent("h2so4")
 	target, _ := saturation.ParseTarget("ph=7.2", nil)
@@ -67,6 +82,11 @@ func ExampleDoseToTarget() {
 	// 26.8 mg/L of 93 % sulfuric acid; gypsum SI -0.965 → -0.937
 }
 
+// ExampleMaxCycles prints results for an invented water.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleMaxCycles() {
 	makeup := towerWater()
 	for c := range makeup.Totals {

@@ -13,7 +13,7 @@ import (
 // 0.20, C(Ca hardness 500 mg/L as CaCO3) = 2.30, D(alkalinity 100 mg/L as
 // CaCO3) = 2.00; B from the formula −13.12·log10(T+273) + 34.55 (common
 // practice; 1.993 at 30 °C — the UFC B table differs by about 0.1 and is
-// not used, see practice.md §1.1.c).
+// not used, see testdata/reference/practice.md §1.1.c).
 func TestSimplifiedPHsFactors(t *testing.T) {
 	B := -13.12*math.Log10(30+273) + 34.55
 	want := 9.3 + 0.20 + B - (2.30 + 2.00)
@@ -44,7 +44,7 @@ func TestPuckoriusPHeq(t *testing.T) {
 }
 
 // TestLangelierAgainstHandCalculation computes pHs by hand from the
-// Plummer & Busenberg (1982) constants as tabulated in practice.md §1.1.b
+// Plummer & Busenberg (1982) constants as tabulated in testdata/reference/practice.md §1.1.b
 // (pK2 − pKs = 1.849 at 25 °C [COMPUTED from PB82]) and Davies' fm, for a
 // water at pH 7.0 where carbonate and hydroxide are negligible, and
 // compares LangelierPHs.

@@ -16,7 +16,7 @@ import (
 const (
 	tolGammaTable = 0.02  // relative, γ± against Robinson & Stokes / Hamer & Wu (issue 4)
 	tolPhiNaCl    = 0.005 // absolute, φ of NaCl and KCl against Robinson & Stokes
-	tolComputed   = 0.009 // relative, against thermo.md §7.3 [COMPUTED] values (A_φ 0.3915 there, 0.392 here: up to 0.8 % for 2-2 salts)
+	tolComputed   = 0.009 // relative, against testdata/reference/thermo.md §7.3 [COMPUTED] values (A_φ 0.3915 there, 0.392 here: up to 0.8 % for 2-2 salts)
 	tolGypsum     = 0.05  // relative, gypsum solubility in NaCl (issue 4)
 	tolAw         = 0.002 // absolute, water activity
 )
@@ -88,12 +88,12 @@ func meanActivity(t *testing.T, set *pitzerSet, s salt, m float64) (gpm, phi flo
 }
 
 // TestPitzerMeanActivity compares γ± of single salts at 25 °C with the
-// standard tables (values as gathered in thermo.md §7.1).
+// standard tables (values as gathered in testdata/reference/thermo.md §7.1).
 func TestPitzerMeanActivity(t *testing.T) {
 	set := pitzerSetT(t)
 	const (
-		rs   = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY, thermo.md §7.1]"
-		crc  = "CRC Handbook (Hamer & Wu 1972; Goldberg) [READ, thermo.md §7.1]"
+		rs   = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY, testdata/reference/thermo.md §7.1]"
+		crc  = "CRC Handbook (Hamer & Wu 1972; Goldberg) [READ, testdata/reference/thermo.md §7.1]"
 		rsMg = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY]"
 	)
 	tests := []struct {
@@ -147,23 +147,23 @@ func TestPitzerMeanActivity(t *testing.T) {
 		{saltBaCl2, 0.5, 0.391, 0.03, crc},
 		{saltBaCl2, 1, 0.393, 0.03, crc},
 		// Na2SO4: the recalled R&S values are uncertain and lie about 2 %
-		// below every Pitzer fit (thermo.md §7.1); 3 % is the honest
+		// below every Pitzer fit (testdata/reference/thermo.md §7.1); 3 % is the honest
 		// tolerance against them.
-		{saltNa2SO4, 0.1, 0.445, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltNa2SO4, 0.5, 0.266, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltNa2SO4, 1, 0.201, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltNa2SO4, 2, 0.152, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltNa2SO4, 3, 0.139, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
+		{saltNa2SO4, 0.1, 0.445, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltNa2SO4, 0.5, 0.266, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltNa2SO4, 1, 0.201, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltNa2SO4, 2, 0.152, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltNa2SO4, 3, 0.139, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
 		// MgSO4: R&S (recalled) lies 9–13 % below the HMW84 = Pitzer &
 		// Mayorga 1974 curve at 0.1–2 mol/kg, a different low-concentration
-		// anchor for 2-2 salts (thermo.md §7.1 advises not to use it as a
+		// anchor for 2-2 salts (testdata/reference/thermo.md §7.1 advises not to use it as a
 		// tight test); the code is checked tightly against the [COMPUTED]
 		// values in TestPitzerComputedValues.
-		{saltMgSO4, 0.1, 0.150, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltMgSO4, 0.5, 0.0675, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltMgSO4, 1, 0.0485, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltMgSO4, 2, 0.0424, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
-		{saltMgSO4, 3, 0.0532, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; thermo.md §7.1]"},
+		{saltMgSO4, 0.1, 0.150, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltMgSO4, 0.5, 0.0675, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltMgSO4, 1, 0.0485, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltMgSO4, 2, 0.0424, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
+		{saltMgSO4, 3, 0.0532, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
 	}
 	for _, tc := range tests {
 		got, _ := meanActivity(t, set, tc.s, tc.m)
@@ -174,10 +174,10 @@ func TestPitzerMeanActivity(t *testing.T) {
 }
 
 // TestPitzerOsmotic compares the osmotic coefficients of NaCl and KCl at
-// 25 °C with Robinson & Stokes (1959) [FROM MEMORY, thermo.md §7.2].
+// 25 °C with Robinson & Stokes (1959) [FROM MEMORY, testdata/reference/thermo.md §7.2].
 func TestPitzerOsmotic(t *testing.T) {
 	set := pitzerSetT(t)
-	const src = "Robinson & Stokes 1959 [FROM MEMORY, thermo.md §7.2]"
+	const src = "Robinson & Stokes 1959 [FROM MEMORY, testdata/reference/thermo.md §7.2]"
 	tests := []struct {
 		s       salt
 		m, want float64
@@ -198,11 +198,11 @@ func TestPitzerOsmotic(t *testing.T) {
 
 // TestPitzerComputedValues guards the implementation against the values
 // computed independently from the same equations and parameters in
-// thermo.md §7.1 and §7.3 [COMPUTED regression]: the 2-1, 1-2 and 2-2 salts
+// testdata/reference/thermo.md §7.1 and §7.3 [COMPUTED regression]: the 2-1, 1-2 and 2-2 salts
 // whose tables are uncertain, including φ, which R&S tables here lack.
 func TestPitzerComputedValues(t *testing.T) {
 	set := pitzerSetT(t)
-	const src = "thermo.md §7.3 [COMPUTED regression, A_φ 0.3915]"
+	const src = "testdata/reference/thermo.md §7.3 [COMPUTED regression, A_φ 0.3915]"
 	tests := []struct {
 		s    salt
 		m    float64
@@ -280,7 +280,7 @@ func maps(m map[string]float64) map[string]float64 {
 // q = −(x/y)e^−y, evaluated here independently by Simpson's rule on an even
 // grid in y (fine enough for x ≥ 0.5), and against Pitzer's (1975)
 // approximation J ≈ x/[4 + 4.581 x^−0.7237 exp(−0.0120 x^0.528)] (from
-// memory, thermo.md §6.1), which is good to about 1.3 %.
+// memory, testdata/reference/thermo.md §6.1), which is good to about 1.3 %.
 func TestPitzerJ(t *testing.T) {
 	integral := func(x float64) float64 {
 		f := func(y float64) float64 {
@@ -335,7 +335,7 @@ func TestPitzerJ(t *testing.T) {
 // TestPitzerAphi checks A_φ(T) against the Debye–Hückel A tabulated by
 // Helgeson & Kirkham (1974) (A_φ = A·ln 10/3; the values of activity_test.go,
 // [READ]), and the anchored Møller (1988) function against its own
-// [COMPUTED] table (thermo.md §6.2).
+// [COMPUTED] table (testdata/reference/thermo.md §6.2).
 func TestPitzerAphi(t *testing.T) {
 	ps := newPitzerState(pitzerSetT(t))
 	hk := map[float64]float64{0: 0.4911, 25: 0.5092, 50: 0.5336, 100: 0.5998}
@@ -349,14 +349,14 @@ func TestPitzerAphi(t *testing.T) {
 		}
 		// Anchored at HMW84's 0.392: the change from 25 °C is M88's.
 		if got, want := ps.aphi-0.392, m88[tc]-0.3915; math.Abs(got-want) > 2e-4 {
-			t.Errorf("A_φ(%g °C) − A_φ(25 °C) = %.4f, want %.4f ± 0.0002 (Møller 1988, thermo.md §6.2 [COMPUTED])", tc, got, want)
+			t.Errorf("A_φ(%g °C) − A_φ(25 °C) = %.4f, want %.4f ± 0.0002 (Møller 1988, testdata/reference/thermo.md §6.2 [COMPUTED])", tc, got, want)
 		}
 	}
 }
 
 // TestPitzerTemperatureFunctions guards the transcription of the Møller
 // (1988) and Greenberg & Møller (1989) functions: the change of each
-// parameter from 25 °C must match thermo.md §6.3's [COMPUTED] table.
+// parameter from 25 °C must match testdata/reference/thermo.md §6.3's [COMPUTED] table.
 func TestPitzerTemperatureFunctions(t *testing.T) {
 	tab, err := defaultPitzerTable()
 	if err != nil {
@@ -372,7 +372,7 @@ func TestPitzerTemperatureFunctions(t *testing.T) {
 		t.Fatalf("no %s(%s,%s) row", pitzerKindNames[kind], c, a)
 		return nil
 	}
-	const src = "thermo.md §6.3 [COMPUTED] from the M88/GM89 functions"
+	const src = "testdata/reference/thermo.md §6.3 [COMPUTED] from the M88/GM89 functions"
 	tests := []struct {
 		kind        pitzerKind
 		c, a        string
@@ -498,7 +498,7 @@ func TestPitzerWaterActivity(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// φ = 1.2706 (Robinson & Stokes 1959 [FROM MEMORY, thermo.md §7.2]):
+	// φ = 1.2706 (Robinson & Stokes 1959 [FROM MEMORY, testdata/reference/thermo.md §7.2]):
 	// a_w = exp(−1.2706·12·0.0180153) = 0.7598.
 	if want := math.Exp(-1.2706 * 12 * waterMolarMass); math.Abs(r.WaterActivity-want) > tolAw {
 		t.Errorf("a_w(NaCl 6 mol/kg, 25 °C) = %.4f, want %.4f ± %g (Robinson & Stokes 1959 φ)", r.WaterActivity, want, tolAw)
@@ -568,7 +568,7 @@ func TestBariteInNaCl(t *testing.T) {
 		}
 	}
 	s0 := solubility(t, "barite", opt, build(0))
-	// √K at 25 °C = 10.4 µmol/L ≈ 2.4 mg/L (Blount 1977 [READ + COMPUTED], practice.md §3.5).
+	// √K at 25 °C = 10.4 µmol/L ≈ 2.4 mg/L (Blount 1977 [READ + COMPUTED], testdata/reference/practice.md §3.5).
 	if math.Abs(s0/1.04e-5-1) > 0.05 {
 		t.Errorf("barite solubility in water, 25 °C = %.3g mol/kg, want 1.04e-5 ± 5 %% (Blount 1977)", s0)
 	}
@@ -589,7 +589,7 @@ func TestBariteInNaCl(t *testing.T) {
 // TestBariteSeawater: the stoichiometric mean activity coefficient of
 // BaSO4 in seawater (S=35, 22 °C), √(a_Ba·a_SO4/(m_Ba,T·m_SO4,T)), measured
 // as 0.108 ("Solubility of BaSO4 and the physicochemical state of barium in
-// seawater" [READ abstract], practice.md §3.5). Monnin & Galinier (1988)
+// seawater" [READ abstract], testdata/reference/practice.md §3.5). Monnin & Galinier (1988)
 // Chem. Geol. 71:283 [READ abstract] found Pitzer predictions of barite in
 // seawater above such measurements (a (Ba,Sr)SO4 solid solution in the
 // experiments), and the measured solubility product carries ± 11 %, so the
@@ -613,7 +613,7 @@ func TestBariteSeawater(t *testing.T) {
 	got := math.Sqrt(aBa * aSO4 / (a.Totals[water.Ba] * a.Totals[water.S]))
 	t.Logf("γT±(BaSO4, seawater, 22 °C) = %.3f", got)
 	if math.Abs(got/0.108-1) > 0.15 {
-		t.Errorf("γT±(BaSO4, seawater, 22 °C) = %.3f, want 0.108 ± 15 %% (measured, practice.md §3.5)", got)
+		t.Errorf("γT±(BaSO4, seawater, 22 °C) = %.3f, want 0.108 ± 15 %% (measured, testdata/reference/practice.md §3.5)", got)
 	}
 }
 
@@ -663,7 +663,7 @@ func TestGypsumAnhydriteInNaCl(t *testing.T) {
 // two model sets must agree, since both reproduce the same dilute
 // solubility data: saturation indices within 0.025 per ion of the ion
 // activity product (0.05 for calcite, about the ±0.04 spread of published
-// calcite constants, practice.md §3.4; 0.1 for dolomite's four ions).
+// calcite constants, testdata/reference/practice.md §3.4; 0.1 for dolomite's four ions).
 func TestPitzerDiluteAgreement(t *testing.T) {
 	a := coolingWater()
 	ia, err := Speciate(a, Options{Activity: TruesdellJones})
@@ -944,6 +944,10 @@ func TestPitzerCustomTable(t *testing.T) {
 
 // ExampleSpeciate_brine speciates an invented oilfield produced water
 // (I ≈ 2.5 mol/kg): the automatic choice runs the Pitzer model set.
+//
+// The printed values are a regression pin of the program's own output, not an
+// outside reference: a change in them must be explained by a change in data or
+// method. The published checks are in the package's tests.
 func ExampleSpeciate_brine() {
 	a := water.Analysis{Name: "produced water", Temperature: 25, PH: 6.8, PHTemperature: 25, Pressure: 1,
 		Alkalinity: 2e-3, CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(), WaterPerLitre: 0.93, Density: 1.09}

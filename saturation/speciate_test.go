@@ -91,14 +91,14 @@ func TestSolubilities(t *testing.T) {
 		source     string
 		extraAnion water.Component
 	}{
-		// Gypsum in pure water, 25 °C: 15.2–15.4 mmol/kg (thermo.md §3,
+		// Gypsum in pure water, 25 °C: 15.2–15.4 mmol/kg (testdata/reference/thermo.md §3,
 		// from memory; Lebedev & Kosorukov 2017 give 14.7–18.2 mM [READ]).
 		{"gypsum", 25, water.Ca, 15.3e-3, 0.8e-3, "gypsum 25 °C, 15.3 mmol/kg (from memory; Lebedev & Kosorukov 2017)", water.S},
 		// Barite, 25 °C: ideal √Ksp = 10.4 µmol/kg from Blount (1977)
 		// [READ + COMPUTED]; activity and the BaSO4° pair raise it a little.
 		{"barite", 25, water.Ba, 10.4e-6, 1.6e-6, "barite 25 °C, about 10.4 µmol/kg (Blount 1977)", water.S},
 		// Celestite, 25 °C: about 0.0135 g SrSO4 per 100 mL = 0.73 mmol/L
-		// (CRC Handbook, from memory; practice.md §1.9 computes 0.71). The
+		// (CRC Handbook, from memory; testdata/reference/practice.md §1.9 computes 0.71). The
 		// ion-association model here sits about 10 % lower.
 		{"celestite", 25, water.Sr, 0.72e-3, 0.1e-3, "celestite 25 °C, about 0.72 mmol/kg (CRC Handbook, from memory)", water.S},
 	}
@@ -151,7 +151,7 @@ func TestGypsumTemperature(t *testing.T) {
 
 // TestGypsumAnhydriteCrossover: the temperature where gypsum and anhydrite
 // are equally stable in a gypsum-saturated water lies between 42 °C (Bock
-// 1961) and 59 °C (Blount & Dickson 1973: 56 ± 3 °C) [READ, practice.md §3.2].
+// 1961) and 59 °C (Blount & Dickson 1973: 56 ± 3 °C) [READ, testdata/reference/practice.md §3.2].
 func TestGypsumAnhydriteCrossover(t *testing.T) {
 	diff := func(tc float64) float64 {
 		a := newWater("gypsum-sat", tc, map[water.Component]float64{water.Ca: 0.015, water.S: 0.015})

@@ -84,7 +84,7 @@ type sampleDoc struct {
 func decodeAssess(t *testing.T, out string) assessDoc {
 	t.Helper()
 	var doc assessDoc
-	// Keys beyond these are welcome (design.md: "extend freely").
+	// Keys beyond these are welcome (README, "JSON output": later versions may add keys).
 	if err := json.Unmarshal([]byte(out), &doc); err != nil {
 		t.Fatalf("output is not the JSON of assess: %v\n%s", err, out)
 	}
@@ -138,7 +138,7 @@ func TestAssessDemoText(t *testing.T) {
 // requiredMinerals are the minerals every demo water must report.
 var requiredMinerals = []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"}
 
-// elements are the keys allowed in totals (design.md: element symbols; C
+// elements are the keys allowed in totals (README, "JSON output": `totals` keyed by element; C
 // for inorganic carbon, S for sulfate, N for nitrate).
 var elements = []string{"Ca", "Mg", "Na", "K", "Ba", "Sr", "Fe", "Mn", "Cl", "S", "C", "Si", "P", "F", "N", "B"}
 
@@ -212,7 +212,7 @@ func TestAssessDemoJSONShape(t *testing.T) {
 		}
 		for k := range totals {
 			if !slices.Contains(elements, k) {
-				t.Errorf("%s: totals key %q is not an element symbol of design.md", name, k)
+				t.Errorf("%s: totals key %q is not an element symbol (README, JSON output)", name, k)
 			}
 		}
 		var warnings []string
@@ -225,7 +225,10 @@ func TestAssessDemoJSONShape(t *testing.T) {
 	}
 }
 
-// TestGolden pins the text, CSV and JSON output of assess --demo; run
+// TestGolden pins the text, CSV and JSON output of assess --demo. The golden
+// files are a regression pin of the program's own output, not an outside
+// reference: they catch unintended changes, they do not show the numbers are
+// right (the published checks are in the saturation and water tests). Run
 // "go test ./cmd/scalerisk -update" after an intended change and review the
 // diff. (Floating-point results are rounded for display; a platform that
 // fuses multiply-add may still differ in a last digit.)
@@ -456,7 +459,7 @@ func TestActivityModel(t *testing.T) {
 }
 
 func TestMinerals(t *testing.T) {
-	// Built the way principle 5 of style.md asks: a fresh command tree.
+	// A fresh command tree per test: no state carried between runs.
 	root := newRootCmd(strings.NewReader(""))
 	var out, errOut bytes.Buffer
 	root.SetArgs([]string{"minerals"})
@@ -579,7 +582,7 @@ func TestHelp(t *testing.T) {
 		args []string
 		want []string
 	}{
-		// design.md: every --help carries the caution.
+		// Every --help carries the caution (README, "Caution").
 		{[]string{"--help"}, []string{"advisory"}},
 		{[]string{"assess", "--help"}, []string{"advisory", "half"}},
 		{[]string{"minerals", "--help"}, []string{"--thermo"}},
