@@ -17,26 +17,32 @@ import (
 // SampleJSON is one sample of the JSON output of assess. The key names are
 // a contract that other programs parse: extend, never rename.
 type SampleJSON struct {
-	Name                 string              `json:"name"`
-	File                 string              `json:"file,omitempty"`
-	Line                 int                 `json:"line,omitempty"`
-	TemperatureC         *float64            `json:"temperature_c"`
-	PH                   *float64            `json:"ph"`
-	ActivityModel        *string             `json:"activity_model"`
-	IonicStrength        *float64            `json:"ionic_strength"`
-	ChargeBalancePercent *float64            `json:"charge_balance_percent"`
-	AlkalinityMeqPerKg   *float64            `json:"alkalinity_meq_per_kg,omitempty"`
-	LogPCO2              *float64            `json:"log_pco2,omitempty"`
-	SaturationIndex      map[string]float64  `json:"saturation_index"`
-	RiskBand             map[string]string   `json:"risk_band,omitempty"`
-	Indices              *IndicesJSON        `json:"indices"`
-	Precipitation        []PrecipitationJSON `json:"precipitation,omitempty"`
-	Species              []SpeciesJSON       `json:"species"`
-	Totals               map[string]float64  `json:"totals"`
-	Quality              *QualityJSON        `json:"quality,omitempty"`
-	BelowDetection       []string            `json:"below_detection,omitempty"`
-	Warnings             []string            `json:"warnings"`
-	Error                *string             `json:"error"`
+	Name                 string             `json:"name"`
+	File                 string             `json:"file,omitempty"`
+	Line                 int                `json:"line,omitempty"`
+	TemperatureC         *float64           `json:"temperature_c"`
+	PH                   *float64           `json:"ph"`
+	ActivityModel        *string            `json:"activity_model"`
+	IonicStrength        *float64           `json:"ionic_strength"`
+	ChargeBalancePercent *float64           `json:"charge_balance_percent"`
+	AlkalinityMeqPerKg   *float64           `json:"alkalinity_meq_per_kg,omitempty"`
+	LogPCO2              *float64           `json:"log_pco2,omitempty"`
+	SaturationIndex      map[string]float64 `json:"saturation_index"`
+	RiskBand             map[string]string  `json:"risk_band,omitempty"`
+	// Limiting is the limiting mineral under the inhibitor profile (null
+	// when none is at or above near equilibrium, or not computed); Ranking
+	// lists the scale formers at or above near equilibrium, most at risk
+	// first (saturation.Rank).
+	Limiting       *RankedJSON         `json:"limiting"`
+	Ranking        []RankedJSON        `json:"ranking,omitempty"`
+	Indices        *IndicesJSON        `json:"indices"`
+	Precipitation  []PrecipitationJSON `json:"precipitation,omitempty"`
+	Species        []SpeciesJSON       `json:"species"`
+	Totals         map[string]float64  `json:"totals"`
+	Quality        *QualityJSON        `json:"quality,omitempty"`
+	BelowDetection []string            `json:"below_detection,omitempty"`
+	Warnings       []string            `json:"warnings"`
+	Error          *string             `json:"error"`
 }
 
 // IndicesJSON holds the classic indices; a key is left out where the
@@ -155,6 +161,12 @@ func Sample(as saturation.Assessment) SampleJSON {
 	for _, m := range r.Minerals {
 		s.SaturationIndex[m.Name] = dec(m.SI, 3)
 		s.RiskBand[m.Name] = saturation.RiskBand(m.Name, m.SI).String()
+	}
+	for _, rk := range saturation.Rank(r, nil) {
+		s.Ranking = append(s.Ranking, rankedJSON(rk))
+	}
+	if len(s.Ranking) > 0 {
+		s.Limiting = &s.Ranking[0]
 	}
 	for _, sp := range r.Species {
 		if sp.Molality <= 0 || math.IsNaN(sp.Molality) {
@@ -505,4 +517,22 @@ func wrap(text string, width int) string {
 		lines = append(lines, line)
 	}
 	return strings.Join(lines, "\n")
+}
+
+// RankedJSON is a mineral of the ranking: its saturation index, the limit
+// of the inhibitor profile (null without one), the margin left to it
+// (limit − SI) and its risk band.
+type RankedJSON struct {
+	Mineral         string   `json:"mineral"`
+	Formula         string   `json:"formula"`
+	SaturationIndex float64  `json:"saturation_index"`
+	Limit           *float64 `json:"limit"`
+	Margin          *float64 `json:"margin"`
+	RiskBand        string   `json:"risk_band"`
+}
+
+func rankedJSON(rk saturation.Ranked) RankedJSON {
+	return RankedJSON{Mineral: rk.Name, Formula: rk.Formula, SaturationIndex: dec(rk.SI, 3),
+		Limit:  optional(rk.Limit, func(x float64) float64 { return dec(x, 3) }),
+		Margin: optional(rk.Margin, func(x float64) float64 { return dec(x, 3) }), RiskBand: rk.Band.String()}
 }

@@ -81,10 +81,10 @@ func TestJSONErrorOnly(t *testing.T) {
 	// The design's keys are always there (a stable contract), null where
 	// nothing was computed.
 	if want := []string{"activity_model", "charge_balance_percent", "error", "file", "indices", "ionic_strength",
-		"line", "name", "ph", "saturation_index", "species", "temperature_c", "totals", "warnings"}; !slices.Equal(keys, want) {
+		"limiting", "line", "name", "ph", "saturation_index", "species", "temperature_c", "totals", "warnings"}; !slices.Equal(keys, want) {
 		t.Errorf("keys of an error-only sample = %v, want %v", keys, want)
 	}
-	for _, k := range []string{"ph", "temperature_c", "activity_model", "saturation_index", "indices", "totals"} {
+	for _, k := range []string{"ph", "temperature_c", "activity_model", "saturation_index", "indices", "totals", "limiting"} {
 		if string(s[k]) != "null" {
 			t.Errorf("%s = %s for a sample not computed, want null", k, s[k])
 		}

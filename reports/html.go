@@ -1,15 +1,14 @@
 package reports
 
 import (
-	"bufio"
 	_ "embed"
 	"errors"
-	"fmt"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
@@ -29,23 +28,22 @@ var (
 // EChartsVersion is the version of the inlined chart library.
 const EChartsVersion = "5.6.0"
 
-// Defaults of HTMLOptions.
+// Defaults of the report's settings (see plan.Settings).
 const (
 	// DefaultReportTitle is the title of a report that names none.
 	DefaultReportTitle = "Scale-risk assessment"
 	// DefaultSkinTemperature is the end of the temperature axis, °C: a
 	// common tube-wall temperature of a cooling-water heat exchanger.
-	DefaultSkinTemperature = 60.0
+	DefaultSkinTemperature = plan.DefaultSkinTemperature
 	// DefaultMaxCycles is the end of the cycles-of-concentration axis.
-	DefaultMaxCycles = 8.0
+	DefaultMaxCycles = plan.DefaultMaxCycles
 	// DefaultReagent is the reagent of the dose chart.
-	DefaultReagent = "h2so4"
+	DefaultReagent = plan.DefaultReagent
 )
 
 // Report is what WriteHTML presents: the assessed samples of one or more
-// files, what the treatment searches found for them, and how to draw the
-// charts. Text in it (titles, names, dates, warnings) is taken as untrusted
-// and escaped.
+// files and how to plan and lay them out. Text in it (titles, names,
+// dates, warnings) is taken as untrusted and escaped.
 type Report struct {
 	// Title heads the report; empty means DefaultReportTitle.
 	Title string
@@ -55,19 +53,19 @@ type Report struct {
 	// empty leaves it out, which keeps the output of a test reproducible.
 	Date string
 	// Inputs names the input files in order.
-	Inputs  []string
+	Inputs []string
+	// Samples are planned by WriteHTML; an HTMLWriter takes plans instead
+	// and ignores them.
 	Samples []ReportSample
 	Options HTMLOptions
 }
 
-// ReportSample is one sample of a report: its assessment and, when the
-// treatment searches ran, their answers (nil when they did not).
+// ReportSample is one assessed sample of a report.
 type ReportSample struct {
 	saturation.Assessment
-	Treatment *Treatment
 }
 
-// ReportSamples wraps assessments without treatment answers.
+// ReportSamples wraps assessments.
 func ReportSamples(as []saturation.Assessment) []ReportSample {
 	out := make([]ReportSample, len(as))
 	for i, a := range as {
@@ -76,122 +74,59 @@ func ReportSamples(as []saturation.Assessment) []ReportSample {
 	return out
 }
 
-// HTMLOptions says how the charts of a report are computed and which
-// samples get a full section. The zero value uses the defaults.
+// HTMLOptions says how the samples are planned and which get a full
+// section. The zero value uses the defaults.
 type HTMLOptions struct {
-	// Speciation is the options the assessments were computed with; the
-	// sweeps behind the charts use them too (activity model, table,
-	// carbonate mode, and the evaluation temperature when one was forced).
-	Speciation saturation.Options
+	// Plan is what is computed for every sample: the sweeps, the searches
+	// and their settings (see plan.Settings).
+	Plan plan.Settings
 	// Detection is the below-detection policy the files were read with,
 	// named in the methods.
 	Detection water.DetectionPolicy
-	// SkinTemperature is the end of the temperature axis, °C (0 means
-	// DefaultSkinTemperature). When a sample is already within 5 °C of it,
-	// its axis runs 20 °C above the sample temperature instead.
-	SkinTemperature float64
-	// MaxCycles is the end of the cycles axis (0 means DefaultMaxCycles).
-	MaxCycles float64
-	// Reagent names the reagent of the dose chart by formula, as in
-	// data/reagents.csv ("" means DefaultReagent, sulfuric acid); Strength
-	// is the product strength in percent (0 means the table's usual).
-	Reagent  string
-	Strength float64
-	// MaxDose is the end of the dose axis, mg/L of product. 0 chooses, per
-	// sample, the dose that would remove 80 % of the alkalinity (or
-	// 100 mg/L when that is not defined, as for CO2 or a water without
-	// alkalinity).
-	MaxDose float64
-	// CyclesRule, when set, is the carbonate rule of the cycles chart and of
-	// the temperature × cycles map (as of the highest-cycles search), so
-	// that every cycles figure of a sample follows one rule; nil means the
-	// closed system.
-	CyclesRule *saturation.CarbonateRule
-	// Detail is how many samples, in input order, get a full section with
-	// charts; the others appear in the summary tables only. A sample whose
-	// equilibrium could not be computed counts too: its section gives the
-	// error, the analysis and the data quality. (A row the input could not
-	// give has no section.) 0 means all; a negative value means none.
+	// Detail is how many samples get a full section with charts: those of
+	// highest risk, worst first; every sample has a row in the summary.
+	// Samples whose equilibrium could not be computed get a section (the
+	// error, the analysis and the data quality) when the budget leaves
+	// room. 0 means all; a negative value means none.
 	Detail int
 }
 
-// Check reports the first option out of range: SkinTemperature outside
-// saturation.MinTemperature–MaxTemperature (0–150 °C), MaxCycles outside 1–50, a negative MaxDose, an
-// unknown reagent or a strength outside 0–100 %. NaN is out of range.
-func (o HTMLOptions) Check() error {
-	if !(o.SkinTemperature >= saturation.MinTemperature && o.SkinTemperature <= saturation.MaxTemperature) {
-		return fmt.Errorf("skin temperature %g °C is outside %d–%d °C", o.SkinTemperature, saturation.MinTemperature, saturation.MaxTemperature)
-	}
-	if o.MaxCycles != 0 && !(o.MaxCycles > 1 && o.MaxCycles <= 50) {
-		return fmt.Errorf("maximum cycles %g is outside 1–50", o.MaxCycles)
-	}
-	if !(o.MaxDose >= 0 && o.MaxDose <= 1e5) {
-		return fmt.Errorf("maximum dose %g mg/L is outside 0–100000 mg/L", o.MaxDose)
-	}
-	if !(o.Strength >= 0 && o.Strength <= 100) {
-		return fmt.Errorf("reagent strength %g %% is outside 0–100 %%", o.Strength)
-	}
-	if _, err := water.LookupReagent(o.reagentName()); err != nil {
-		return err
-	}
-	return nil
-}
-
-func (o HTMLOptions) reagentName() string {
-	if o.Reagent == "" {
-		return DefaultReagent
-	}
-	return o.Reagent
-}
-
-func (o HTMLOptions) skin() float64 {
-	if o.SkinTemperature == 0 {
-		return DefaultSkinTemperature
-	}
-	return o.SkinTemperature
-}
-
-func (o HTMLOptions) maxCycles() float64 {
-	if o.MaxCycles == 0 {
-		return DefaultMaxCycles
-	}
-	return o.MaxCycles
-}
+// Check reports the first option out of range (see plan.Settings.Check).
+func (o HTMLOptions) Check() error { return o.Plan.Check() }
 
 // WriteHTML writes r as one self-contained HTML page: the chart script
 // (Apache ECharts) and the style are inlined and the page requests nothing
-// from any network (its content-security policy forbids it). Every sample
-// gets a row in the summary; the first HTMLOptions.Detail samples get a
-// section with their findings, saturation indices with risk bands,
-// charts (saturation index against temperature, cycles of concentration
-// and reagent dose; a temperature × cycles map of the limiting mineral;
-// the composition in meq/L), the analysis as entered and as used, the data
-// quality and the treatment answers of r's Treatment parts. Waters sampled
-// on two or more dates get their indices over time. The methods, data
-// sources and cautions close the report. A sample whose equilibrium could
-// not be computed is listed with its error and, within Detail, gets a
-// section with the error, its analysis and its data quality.
+// from any network (its content-security policy forbids it). Each sample is
+// planned by plan.Compute under r.Options.Plan and laid out by an
+// HTMLWriter: a summary row for every sample, worst first; a section for
+// the HTMLOptions.Detail samples of highest risk with their findings, the
+// saturation indices against their limits, the charts (saturation index
+// against temperature, cycles of concentration and reagent dose; the
+// operating window over temperature and cycles; the composition in
+// meq/L), the treatment answers, the analysis as entered and as used and
+// the data quality. Waters sampled on two or more dates get their indices
+// over time. The methods, data sources and cautions close the report. A
+// sample whose equilibrium could not be computed is listed with its error
+// and, within Detail, gets a section with the error, its analysis and its
+// data quality.
 //
-// The sweeps behind the charts are computed by saturation.Sweep; a sweep
-// point that fails is left out of its chart and said so, a panel with no
-// point left is dropped and a chart with no panel left is replaced by a
-// note that says why, and the report is still written. Chart values are
-// rounded for display and NaN never reaches a chart. The output is deterministic: fixed chart IDs and a
-// stable order. The error is non-nil when an option is out of range or
-// writing fails.
+// A sweep point that fails is left out of its chart and said so, a panel
+// with no point left is dropped and a chart with no panel left is replaced
+// by a note that says why; the report is still written. Chart values are
+// rounded for display and NaN never reaches a chart. The output is
+// deterministic: fixed chart IDs and a stable order. The error is non-nil
+// when an option is out of range or writing fails.
 func WriteHTML(w io.Writer, r Report) error {
-	if err := r.Options.Check(); err != nil {
-		return err
-	}
-	v, err := buildView(r)
+	hw, err := NewHTMLWriter(r)
 	if err != nil {
 		return err
 	}
-	bw := bufio.NewWriterSize(w, 1<<16)
-	if err := pageTemplate().Execute(bw, v); err != nil {
-		return err
+	for _, s := range r.Samples {
+		if err := hw.Add(plan.Compute(s.Assessment, r.Options.Plan)); err != nil {
+			return err
+		}
 	}
-	return bw.Flush()
+	return hw.Finish(w)
 }
 
 // WriteHTMLFile writes the report to path whole or not at all: it is
@@ -202,12 +137,14 @@ func WriteHTMLFile(path string, r Report) error {
 	if err := r.Options.Check(); err != nil {
 		return err
 	}
-	return writeAtomic(path, func(w io.Writer) error { return WriteHTML(w, r) })
+	return WriteFileAtomic(path, func(w io.Writer) error { return WriteHTML(w, r) })
 }
 
-// writeAtomic writes what fill writes to path through a temporary file in
-// the same directory and a rename.
-func writeAtomic(path string, fill func(io.Writer) error) (err error) {
+// WriteFileAtomic writes what fill writes to path whole or not at all:
+// through a temporary file in the same directory, synced and renamed over
+// path (mode 0644). When fill or a step fails, any earlier file at path is
+// untouched and no temporary file is left.
+func WriteFileAtomic(path string, fill func(io.Writer) error) (err error) {
 	dir, base := filepath.Split(path)
 	if dir == "" {
 		dir = "."

@@ -1,14 +1,13 @@
 package reports
 
 import (
-	"cmp"
 	"fmt"
 	"math"
-	"slices"
 	"strconv"
 	"strings"
 	"time"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
@@ -20,15 +19,15 @@ const maxPanelTitle = 30
 // siPanels turns sweep points into one SI panel per mineral; x is rounded
 // to xDecimals. A panel whose points all failed is kept, empty, for
 // panelChart.drawable to drop.
-func siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDecimals int) []panel {
+func (b *builder) siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDecimals int) []panel {
 	var out []panel
 	for _, m := range minerals {
 		p := panel{Title: mineralLabel(m.Name) + " · " + m.Formula, Color: colBlue, SI: true, Limit: math.NaN()}
 		if m.Formula == "" || len([]rune(p.Title)) > maxPanelTitle {
 			p.Title = mineralLabel(m.Name) // the formula is in the table of saturation indices
 		}
-		if reach, ok := saturation.InhibitorReach(m.Name); ok && !reach.Slow {
-			p.Limit = reach.MaxSI
+		if limit, _, ok := b.limitOf(m.Name); ok {
+			p.Limit = limit
 		}
 		for _, pt := range pts {
 			if pt.Result == nil {
@@ -97,7 +96,7 @@ func (b *builder) addPanelChart(pc panelChart, title, caption, caution string, p
 
 // compositionView adds the composition chart of a sample; ok is false
 // when it has no ions to show or the chart cannot be encoded.
-func (b *builder) compositionView(id string, s ReportSample) (chartView, bool) {
+func (b *builder) compositionView(id string, s *plan.Sample) (chartView, bool) {
 	cc := compositionOf(id, s.Input)
 	if len(cc.Ions) == 0 {
 		return chartView{}, false
@@ -113,7 +112,7 @@ func (b *builder) compositionView(id string, s ReportSample) (chartView, bool) {
 // sampleCharts builds the five charts of a sample and the notes on those
 // that could not be drawn. The chart IDs are "s<N>-<kind>", N the
 // sample's position in the input.
-func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chartView, []string) {
+func (b *builder) sampleCharts(index int, s *plan.Sample, sw *sweepSet) ([]chartView, []string) {
 	var views []chartView
 	var notes []string
 	id := func(kind string) string { return fmt.Sprintf("s%d-%s", index+1, kind) }
@@ -139,37 +138,34 @@ func (b *builder) sampleCharts(index int, s ReportSample, sw *sweepSet) ([]chart
 // sweepCharts builds the temperature, cycles and dose charts and the
 // limiting-mineral map of a sample whose sweeps gave points, and the notes
 // on what could not be drawn; id names a chart of the sample by its kind.
-func (b *builder) sweepCharts(id func(string) string, s ReportSample, sw *sweepSet) ([]chartView, []string) {
+func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepSet) ([]chartView, []string) {
 	var views []chartView
 	var notes []string
 	if sw.failed > 0 {
 		notes = append(notes, fmt.Sprintf("%d of %d points of the charts could not be computed and are left out.",
 			sw.failed, sw.total))
 	}
-	for _, m := range sw.minerals {
-		b.charted[m.Name] = true
-	}
 	forced := ""
-	if b.o.Speciation.AtTemperature {
-		forced = fmt.Sprintf(" (evaluated at %s °C, as asked)", num(b.o.Speciation.Temperature, 1))
+	if b.o.Plan.Speciation.AtTemperature {
+		forced = fmt.Sprintf(" (evaluated at %s °C, as asked)", num(b.o.Plan.Speciation.Temperature, 1))
 	}
 
 	tStep := tickStep((sw.hot - sw.bulk) / 6)
 	temp := panelChart{ID: id("temperature"), XName: "°C", XMin: math.Floor(sw.bulk/tStep) * tStep,
 		XMax:   math.Ceil(sw.hot/tStep) * tStep,
-		Panels: siPanels(sw.temp, sw.minerals, 1)}
+		Panels: b.siPanels(sw.temp, sw.minerals, 1)}
 	cyc := panelChart{ID: id("cycles"), XName: "cycles of concentration", XMin: 1, XMax: dec(sw.maxCycles, 2),
-		Panels: siPanels(sw.cycles, sw.minerals, 2)}
-	if t := s.Treatment; t != nil && t.Cycles != nil && finite(t.Cycles.MaxCycles) && t.Cycles.Limiting != "" {
-		cyc.Marks = append(cyc.Marks, xMark{dec(t.Cycles.MaxCycles, 2), "highest cycles " + num(t.Cycles.MaxCycles, 1)})
+		Panels: b.siPanels(sw.cycles, sw.minerals, 2)}
+	if c := s.CyclesAnswer; c != nil && finite(c.MaxCycles) && c.Limiting != "" {
+		cyc.Marks = append(cyc.Marks, xMark{dec(c.MaxCycles, 2), "highest cycles " + num(c.MaxCycles, 1)})
 	}
 	dose := panelChart{ID: id("dose"), XName: "mg/L " + b.reagent.Formula, XMin: 0, XMax: math.NaN(),
-		Panels: append([]panel{phPanel(sw.dose, 1)}, siPanels(sw.dose, sw.minerals, 1)...)}
-	if t := s.Treatment; t != nil && t.Dose != nil && t.Dose.Reached && t.Dose.Dose > 0 &&
-		t.Dose.Reagent.Name == b.reagent.Name && t.Dose.Dose <= sw.maxDose {
-		dose.Marks = append(dose.Marks, xMark{dec(t.Dose.Dose, 1), "to " + targetLabel(t.Dose.Target)})
+		Panels: append([]panel{phPanel(sw.dose, 1)}, b.siPanels(sw.dose, sw.minerals, 1)...)}
+	if d := s.DoseAnswer; d != nil && d.Reached && d.Dose > 0 &&
+		d.Reagent.Name == b.reagent.Name && d.Dose <= sw.maxDose {
+		dose.Marks = append(dose.Marks, xMark{dec(d.Dose, 1), "to " + targetLabel(d.Target)})
 	}
-	strength := b.o.Strength
+	strength := b.o.Plan.Strength
 	if strength == 0 {
 		strength = b.reagent.Strength
 	}
@@ -201,7 +197,7 @@ func (b *builder) sweepCharts(id func(string) string, s ReportSample, sw *sweepS
 		}
 	}
 	const mapTitle = "Limiting mineral by temperature and cycles"
-	if hc, caption, ok := heatOf(id("map"), sw); ok {
+	if hc, caption, ok := b.heatOf(id("map"), sw); ok {
 		if err := b.addChart(hc.ID, hc.option()); err != nil {
 			notes = append(notes, fmt.Sprintf("%s: not drawn (%v).", mapTitle, err))
 		} else {
@@ -212,7 +208,7 @@ func (b *builder) sweepCharts(id func(string) string, s ReportSample, sw *sweepS
 }
 
 // heatOf builds the limiting-mineral map of a sample.
-func heatOf(id string, sw *sweepSet) (heatChart, string, bool) {
+func (b *builder) heatOf(id string, sw *sweepSet) (heatChart, string, bool) {
 	hc := heatChart{ID: id, XName: "°C", YName: "cycles"}
 	for _, t := range sw.gridT {
 		hc.XLabels = append(hc.XLabels, num(t, 0))
@@ -230,8 +226,8 @@ func heatOf(id string, sw *sweepSet) (heatChart, string, bool) {
 		if p.Result == nil {
 			continue
 		}
-		if m, ok := limiting(p.Result); ok {
-			cells[i] = &cell{m, saturation.RiskBand(m.Name, m.SI)}
+		if m, ok := b.limiting(p.Result); ok {
+			cells[i] = &cell{m.MineralResult, m.Band}
 			names[m.Name] = true
 		}
 	}
@@ -304,84 +300,6 @@ func compositionOf(id string, a water.Analysis) compositionChart {
 		}
 	}
 	return cc
-}
-
-// timeCharts builds the indices-over-time charts: one per water (sample
-// name) with two or more computed samples whose dates read as calendar
-// dates, at most maxTimeCharts, the waters with the most samples first.
-func (b *builder) timeCharts() ([]chartView, string) {
-	type dated struct {
-		t time.Time
-		s ReportSample
-	}
-	series := map[string][]dated{}
-	var order []string
-	undated := 0
-	for _, s := range b.r.Samples {
-		if s.Result == nil || s.Input.Date == "" {
-			continue
-		}
-		t, ok := parseDate(s.Input.Date)
-		if !ok {
-			undated++
-			continue
-		}
-		if _, seen := series[s.Name]; !seen {
-			order = append(order, s.Name)
-		}
-		series[s.Name] = append(series[s.Name], dated{t, s})
-	}
-	var names []string
-	for _, n := range order {
-		if len(series[n]) >= 2 {
-			names = append(names, n)
-		}
-	}
-	slices.SortStableFunc(names, func(x, y string) int { return cmp.Compare(len(series[y]), len(series[x])) })
-	note := ""
-	if len(names) > maxTimeCharts {
-		note = fmt.Sprintf("%d further waters with dated samples are not charted.", len(names)-maxTimeCharts)
-		names = names[:maxTimeCharts]
-	}
-	if undated > 0 {
-		note = strings.TrimSpace(note + fmt.Sprintf(" %d sample dates could not be read as dates (YYYY-MM-DD) and are left out.", undated))
-	}
-	var views []chartView
-	for i, name := range names {
-		pts := series[name]
-		slices.SortStableFunc(pts, func(x, y dated) int { return x.t.Compare(y.t) })
-		var results []*saturation.Result
-		var sweep []saturation.Point
-		for _, d := range pts {
-			results = append(results, d.s.Result)
-			sweep = append(sweep, saturation.Point{X: float64(d.t.UnixMilli()), Result: d.s.Result})
-		}
-		minerals := chartMinerals(results)
-		for _, m := range minerals {
-			b.charted[m.Name] = true
-		}
-		panels := siPanels(sweep, minerals, 0)
-		lsi := panel{Title: "Langelier index (LSI)", Color: colVermilion, SI: true, Limit: math.NaN()}
-		for _, d := range pts {
-			if ix := d.s.Indices; ix != nil && finite(ix.LSI) {
-				lsi.Points = append(lsi.Points, xy{float64(d.t.UnixMilli()), dec(ix.LSI, 2)})
-			}
-		}
-		if len(lsi.Points) > 0 {
-			panels = append([]panel{lsi}, panels...)
-		}
-		pc := panelChart{ID: fmt.Sprintf("time-%d", i+1), Time: true, XMin: math.NaN(), XMax: math.NaN(), Panels: panels}
-		caption := fmt.Sprintf("%d samples from %s to %s, at the temperature of each sample.", len(pts),
-			pts[0].t.Format("2 Jan 2006"), pts[len(pts)-1].t.Format("2 Jan 2006"))
-		view, why, ok := b.addPanelChart(pc, name, caption, "", sweep)
-		if why != "" {
-			note = strings.TrimSpace(note + " " + why)
-		}
-		if ok {
-			views = append(views, view)
-		}
-	}
-	return views, note
 }
 
 // maxTimeCharts caps the indices-over-time charts.

@@ -4,15 +4,16 @@ import (
 	"fmt"
 	"strings"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 )
 
 // facts are the key figures at the head of a sample's section.
-func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
+func (b *builder) facts(s *plan.Sample, sw *sweepSet) []fact {
 	r := s.Result
 	var out []fact
-	if m, ok := limiting(r); ok {
-		c := bandChip(saturation.RiskBand(m.Name, m.SI))
+	if m, ok := b.limiting(r); ok {
+		c := b.bandChip(m.Band)
 		out = append(out, fact{Label: "Limiting mineral at " + num(r.Temperature, 0) + " °C",
 			Value: mineralLabel(m.Name) + "  SI " + signed(m.SI, 2), Chip: &c})
 	} else {
@@ -21,8 +22,8 @@ func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
 	if sw.err == nil && len(sw.temp) > 0 {
 		last := sw.temp[len(sw.temp)-1]
 		if last.Result != nil {
-			if m, ok := limiting(last.Result); ok {
-				c := bandChip(saturation.RiskBand(m.Name, m.SI))
+			if m, ok := b.limiting(last.Result); ok {
+				c := b.bandChip(m.Band)
 				out = append(out, fact{Label: "Heated to " + num(sw.hot, 0) + " °C",
 					Value: mineralLabel(m.Name) + "  SI " + signed(m.SI, 2), Chip: &c})
 			}
@@ -35,7 +36,7 @@ func (b *builder) facts(s ReportSample, sw *sweepSet) []fact {
 }
 
 // balanceFact is the ion balance of a sample and its verdict.
-func balanceFact(s ReportSample) fact {
+func balanceFact(s *plan.Sample) fact {
 	bal := balanceChip(s.Quality)
 	verdict := "meets " + s.Quality.BalanceLimit
 	if bal.Class == "v-check" {
@@ -49,11 +50,11 @@ func balanceFact(s ReportSample) fact {
 
 // findings are the plain-word conclusions of a sample's section, read from
 // its results and sweeps.
-func (b *builder) findings(s ReportSample, sw *sweepSet) []string {
+func (b *builder) findings(s *plan.Sample, sw *sweepSet) []string {
 	r := s.Result
 	var out []string
-	if m, ok := limiting(r); ok {
-		band := saturation.RiskBand(m.Name, m.SI)
+	if m, ok := b.limiting(r); ok {
+		band := b.bandText(m.Band)
 		out = append(out, fmt.Sprintf("At %s °C the limiting mineral is %s (%s), SI %s: %s.",
 			num(r.Temperature, 1), mineralLabel(m.Name), m.Formula, signed(m.SI, 2), band))
 	} else {
@@ -62,62 +63,54 @@ func (b *builder) findings(s ReportSample, sw *sweepSet) []string {
 	if sw.err != nil {
 		return append(out, b.qualityFinding(s)...)
 	}
-	// Temperature: minerals that pass their inhibitor limit on the way to
-	// the skin temperature, with the first temperature computed where they
-	// do.
-	out = append(out, passFindings(sw.temp, func(x float64) string { return num(x, 0) + " °C" },
+	// Temperature: minerals that pass their limit on the way to the skin
+	// temperature, with the first temperature computed where they do.
+	out = append(out, b.passFindings(s, "temperature", s.Temperature, func(x float64) string { return num(x, 0) + " °C" },
 		fmt.Sprintf("between %s and %s °C", num(sw.bulk, 0), num(sw.hot, 0)))...)
-	if t := s.Treatment; t != nil && t.Cycles != nil {
-		out = append(out, cyclesFinding(t.Cycles, t.CyclesRule))
+	if c := s.CyclesAnswer; c != nil {
+		out = append(out, cyclesFinding(c, b.ruleName()))
 	} else {
-		out = append(out, passFindings(sw.cycles, func(x float64) string { return num(x, 1) + " cycles" },
+		out = append(out, b.passFindings(s, "cycles", s.Cycles, func(x float64) string { return num(x, 1) + " cycles" },
 			fmt.Sprintf("when concentrated up to %s cycles", num(sw.maxCycles, 0)))...)
 	}
 	out = append(out, b.doseFinding(s, sw)...)
 	return append(out, b.qualityFinding(s)...)
 }
 
-// passFindings says which minerals go beyond inhibitor reach over a sweep
-// and from which point, or that none does; nothing when no point of the
-// sweep was computed.
-func passFindings(pts []saturation.Point, at func(float64) string, span string) []string {
-	type first struct {
-		name string
-		x    float64
-	}
-	var firsts []first
-	seen := map[string]bool{}
-	computed := 0
-	for _, p := range pts {
-		if p.Result == nil {
-			continue
-		}
-		computed++
-		for _, m := range p.Result.Minerals {
-			if seen[m.Name] || !scaleFormer(m.Name, m.SI) {
-				continue
-			}
-			if saturation.RiskBand(m.Name, m.SI) == saturation.BeyondReach {
-				seen[m.Name] = true
-				firsts = append(firsts, first{m.Name, p.X})
-			}
-		}
-	}
-	if computed == 0 {
+// passFindings says which minerals go past their limit along a sweep of
+// the plan and from which point, or that none does; nothing when no point
+// of the sweep was computed.
+func (b *builder) passFindings(s *plan.Sample, sweep string, sw plan.Sweep, at func(float64) string, span string) []string {
+	if sw.Computed() == 0 {
 		return nil // nothing was computed to say it of
 	}
-	if len(firsts) == 0 {
-		return []string{fmt.Sprintf("No mineral goes beyond inhibitor reach %s.", span)}
+	past := "beyond inhibitor reach"
+	if !b.inhibitorWords() {
+		past = "past its limit"
 	}
 	var parts []string
-	for _, f := range firsts {
-		if f.x == pts[0].X {
-			parts = append(parts, mineralLabel(f.name)+" (already at the start)")
+	for _, p := range s.Passes {
+		if p.Sweep != sweep {
+			continue
+		}
+		if p.AtStart {
+			parts = append(parts, mineralLabel(p.Mineral)+" (already at the start)")
 		} else {
-			parts = append(parts, fmt.Sprintf("%s (from %s)", mineralLabel(f.name), at(f.x)))
+			parts = append(parts, fmt.Sprintf("%s (from %s)", mineralLabel(p.Mineral), at(p.X)))
 		}
 	}
-	return []string{fmt.Sprintf("Beyond inhibitor reach %s: %s.", span, strings.Join(parts, ", "))}
+	if len(parts) == 0 {
+		return []string{fmt.Sprintf("No mineral goes %s %s.", past, span)}
+	}
+	return []string{fmt.Sprintf("%s %s: %s.", upperFirst(past), span, strings.Join(parts, ", "))}
+}
+
+// upperFirst capitalises the first letter of s.
+func upperFirst(s string) string {
+	if s == "" {
+		return s
+	}
+	return strings.ToUpper(s[:1]) + s[1:]
 }
 
 func cyclesFinding(c *saturation.CyclesResult, rule string) string {
@@ -140,13 +133,13 @@ func cyclesFinding(c *saturation.CyclesResult, rule string) string {
 }
 
 // cyclesCaption describes the cycles chart.
-func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) string {
-	if sw.fromSearch {
-		rule := s.Treatment.CyclesRule
+func (b *builder) cyclesCaption(s *plan.Sample, sw *sweepSet, forced string) string {
+	if sw.fromSearch && s.CyclesAnswer != nil {
+		rule := b.ruleName()
 		if rule == "" {
 			rule = "as searched"
 		}
-		c := s.Treatment.Cycles
+		c := s.CyclesAnswer
 		mark := fmt.Sprintf(" No limit of the %s profile is reached in this range.", c.Profile.Name)
 		if c.Limiting != "" {
 			mark = fmt.Sprintf(" The dotted line marks the highest cycles under the %s limits, set by %s.",
@@ -155,7 +148,7 @@ func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) str
 		return fmt.Sprintf("The points of the highest-cycles search: every dissolved constituent concentrated 1 to %s "+
 			"times%s, carbonate system %s.%s", num(sw.maxCycles, 1), forced, rule, mark)
 	}
-	if r := b.o.CyclesRule; r != nil && r.Name != "closed" {
+	if r := b.o.Plan.CyclesRule; r != nil && r.Name != "closed" {
 		return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate rule %s.",
 			num(sw.maxCycles, 1), forced, r.Name)
 	}
@@ -165,11 +158,10 @@ func (b *builder) cyclesCaption(s ReportSample, sw *sweepSet, forced string) str
 
 // doseFinding reads the dose sweep: pH from start to end, and the
 // minerals whose SI rises with the dose.
-func (b *builder) doseFinding(s ReportSample, sw *sweepSet) []string {
+func (b *builder) doseFinding(s *plan.Sample, sw *sweepSet) []string {
 	var out []string
 	// The answer first: the dose to the target, when it was asked for.
-	if s.Treatment != nil && s.Treatment.Dose != nil {
-		d := s.Treatment.Dose
+	if d := s.DoseAnswer; d != nil {
 		switch {
 		case d.Reached && d.Dose > 0:
 			out = append(out, fmt.Sprintf("The dose to %s is %s mg/L of %s (%s %%): pH %s → %s.",
@@ -224,7 +216,7 @@ func (b *builder) doseFinding(s ReportSample, sw *sweepSet) []string {
 	return append(out, line+".")
 }
 
-func (b *builder) qualityFinding(s ReportSample) []string {
+func (b *builder) qualityFinding(s *plan.Sample) []string {
 	q := s.Quality
 	if !finite(q.BalancePercent) {
 		return []string{"The ion balance cannot be checked: no ions were reported."}

@@ -6,6 +6,7 @@ import (
 	"slices"
 	"strings"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
@@ -29,19 +30,19 @@ func (b *builder) methods() methodsView {
 		models = append(models, m)
 	}
 	slices.Sort(models)
-	if o.Speciation.Activity == saturation.Auto {
+	if o.Plan.Speciation.Activity == saturation.Auto {
 		mv.Activity = "Chosen by ionic strength: Davies up to 0.1 mol/kg, Truesdell–Jones (extended Debye–Hückel) above. " +
 			"Used in this report: " + strings.Join(models, ", ") + "."
 	} else {
-		mv.Activity = "As asked: " + o.Speciation.Activity.String() + "."
+		mv.Activity = "As asked: " + o.Plan.Speciation.Activity.String() + "."
 	}
 	mv.Thermo = "One self-consistent ion-association set: Plummer & Busenberg (1982) for the carbonate system, " +
 		"calcite, aragonite and vaterite and the CaHCO₃⁺ and CaCO₃⁰ pairs; the Nordstrom et al. (1990) compilation " +
 		"for most other ion pairs and minerals; a few additions named on their rows. Equilibrium constants vary " +
 		"with temperature by their published functions; a constant used outside its range carries a warning."
 	table := saturation.DefaultTable()
-	if o.Speciation.Model != nil {
-		table = o.Speciation.Model.Table()
+	if o.Plan.Speciation.Model != nil {
+		table = o.Plan.Speciation.Model.Table()
 		var files []string
 		for _, e := range table.Entries() {
 			if e.File != "" && e.File != "data/thermo.csv" && !slices.Contains(files, e.File) {
@@ -57,8 +58,8 @@ func (b *builder) methods() methodsView {
 		"At any other temperature, concentration or dose the system is closed: carbon and alkalinity are conserved " +
 		"(changed only by what a reagent adds) and pH is recomputed; the highest-cycles search follows its own " +
 		"carbonate rule (--carbonate, natural by default: pH = 1.465·log10(TA) + 4.54 with alkalinity conserved)."
-	if o.Speciation.AtTemperature {
-		mv.Carbonate += fmt.Sprintf(" Every sample was evaluated at %s °C, as asked.", num(o.Speciation.Temperature, 1))
+	if o.Plan.Speciation.AtTemperature {
+		mv.Carbonate += fmt.Sprintf(" Every sample was evaluated at %s °C, as asked.", num(o.Plan.Speciation.Temperature, 1))
 	}
 	mv.Detection = detectionWords(o.Detection)
 	mv.Charts = b.methodsCharts()
@@ -77,21 +78,21 @@ func (b *builder) methods() methodsView {
 // methodsCharts says how the charts were computed: their points and ranges.
 func (b *builder) methodsCharts() []string {
 	o := b.o
-	strength := o.Strength
+	strength := o.Plan.Strength
 	if strength == 0 {
 		strength = b.reagent.Strength
 	}
 	return []string{
 		fmt.Sprintf("Temperature: %d points from the sample temperature to %s °C (the skin temperature; --skin-temperature).",
-			tempPoints, num(o.skin(), 0)),
+			plan.TemperaturePoints, num(o.Plan.Skin(), 0)),
 		fmt.Sprintf("Cycles of concentration: %d points from 1 to %s (--max-cycles); every constituent concentrated alike.",
-			cyclePoints, num(o.maxCycles(), 1)),
+			plan.CyclePoints, num(o.Plan.Cycles(), 1)),
 		fmt.Sprintf("Dose: %d points of %s at %s %% (%s), with the stoichiometry of the reagent table; "+
 			"the range ends where 80 %% of the alkalinity would be neutralised unless --max-dose sets it.",
-			dosePoints, b.reagent.Label, num(strength, 0), b.reagent.Source),
+			plan.DosePoints, b.reagent.Label, num(strength, 0), b.reagent.Source),
 		fmt.Sprintf("Map: %d × %d grid of temperature and cycles; the limiting mineral is the scale former in the "+
 			"highest risk band, and within a band the one furthest past its inhibitor limit (or with the highest SI).",
-			gridSide, gridSide),
+			plan.WindowSide, plan.WindowSide),
 		"Minerals charted: scale formers within 1 SI unit of saturation somewhere on the charts, one per formula, " +
 			"at most six, by risk.",
 	}

@@ -7,16 +7,6 @@ import (
 	"strings"
 )
 
-// roundUp rounds x > 0 up to a multiple of a twentieth of its power of
-// ten (153 → 155, 1234 → 1250, 7.12 → 7.15).
-func roundUp(x float64) float64 {
-	if !(x > 0) || !finite(x) {
-		return 1
-	}
-	step := math.Pow(10, math.Floor(math.Log10(x))) / 20
-	return dec(math.Ceil(x/step*(1-1e-12))*step, 6)
-}
-
 func valueWithUnit(v float64, unit string) string {
 	s := sigText(v, 3)
 	if unit == "%" {
@@ -69,4 +59,20 @@ func signed(x float64, n int) string {
 		return "−" + s[1:]
 	}
 	return s
+}
+
+// plural words a count with its noun: "1 sample", "3 samples".
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
+}
+
+// isAre is the verb that agrees with a count.
+func isAre(n int) string {
+	if n == 1 {
+		return "is"
+	}
+	return "are"
 }

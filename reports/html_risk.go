@@ -1,9 +1,6 @@
 package reports
 
 import (
-	"cmp"
-	"math"
-	"slices"
 	"strings"
 
 	"scalerisk/saturation"
@@ -55,21 +52,94 @@ func bandStyleOf(b saturation.Band) bandStyle {
 var allBands = []saturation.Band{saturation.Undersaturated, saturation.NearEquilibrium, saturation.SlowToForm,
 	saturation.WithinReach, saturation.Supersaturated, saturation.BeyondReach}
 
+// inhibitorWords reports whether the bands speak of inhibitors: under the
+// embedded inhibitor profile they do; under any other profile they speak
+// of "its limit".
+func (b *builder) inhibitorWords() bool { return b.profile.Name == "inhibitor" }
+
+// bandText names band b in the words of the report's profile.
+func (b *builder) bandText(bd saturation.Band) string {
+	if b.inhibitorWords() {
+		return bd.String()
+	}
+	switch bd {
+	case saturation.WithinReach:
+		return "supersaturated – within its limit"
+	case saturation.BeyondReach:
+		return "past its limit"
+	}
+	return bd.String()
+}
+
 // bandMeaning says in words what each band means for a reader.
-func bandMeaning(b saturation.Band) string {
-	switch b {
+func (b *builder) bandMeaning(bd saturation.Band) string {
+	switch bd {
 	case saturation.Undersaturated:
 		return "SI below −0.2: the water dissolves the mineral rather than depositing it."
 	case saturation.NearEquilibrium:
 		return "SI from −0.2 to +0.2: close to balance; small changes tip it either way."
 	case saturation.SlowToForm:
 		return "Supersaturated, but the mineral rarely forms as scale at these temperatures."
-	case saturation.WithinReach:
-		return "Supersaturated, within what an antiscalant programme usually holds in solution."
 	case saturation.Supersaturated:
-		return "Supersaturated; no common inhibitor figure exists for this mineral."
+		return "Supersaturated; the limits used give no figure for this mineral."
+	}
+	if !b.inhibitorWords() {
+		if bd == saturation.WithinReach {
+			return "Supersaturated, but within the limit of the " + b.profile.Name + " limits used in this report."
+		}
+		return "Past the limit of the " + b.profile.Name + " limits used in this report: expect deposits."
+	}
+	if bd == saturation.WithinReach {
+		return "Supersaturated, within what an antiscalant programme usually holds in solution."
 	}
 	return "Supersaturated beyond what an antiscalant programme usually holds: expect deposits."
+}
+
+// bandRows are the legend of the risk bands.
+func (b *builder) bandRows() []bandRow {
+	var out []bandRow
+	for _, bd := range allBands {
+		out = append(out, bandRow{Chip: b.bandChip(bd), Meaning: b.bandMeaning(bd)})
+	}
+	return out
+}
+
+// bandChip is the chip of band bd.
+func (b *builder) bandChip(bd saturation.Band) chip {
+	return chip{b.bandText(bd), bandStyleOf(bd).Class}
+}
+
+// band is the chip of mineral at saturation index si under the profile.
+func (b *builder) band(mineral string, si float64) chip {
+	return b.bandChip(saturation.BandUnder(b.profile, mineral, si))
+}
+
+// limitOf is the SI limit the profile sets on mineral; ok is false when it
+// sets none or the mineral is slow to form.
+func (b *builder) limitOf(mineral string) (limit float64, slow, ok bool) {
+	if r, _ := saturation.InhibitorReach(mineral); r.Slow {
+		return 0, true, false
+	}
+	l, ok := b.profile.Lookup("si:" + mineral)
+	if !ok || !finite(l.Max) {
+		return 0, false, false
+	}
+	return l.Max, false, true
+}
+
+// limiting is the limiting mineral of r under the profile.
+func (b *builder) limiting(r *saturation.Result) (saturation.Ranked, bool) {
+	return saturation.Limiting(r, &b.profile)
+}
+
+// scaleFormer reports whether mineral name at saturation index si is one a
+// reader must watch: not slow to form, and given a limit by the profile or
+// supersaturated.
+func (b *builder) scaleFormer(name string, si float64) bool {
+	if _, slow, ok := b.limitOf(name); ok || slow {
+		return ok
+	}
+	return saturation.BandUnder(b.profile, name, si) == saturation.Supersaturated
 }
 
 // mineralLabel is a mineral name as a reader writes it: words instead of
@@ -81,175 +151,4 @@ func mineralLabel(name string) string {
 		return parts[1] + " " + parts[0]
 	}
 	return strings.Join(parts, " ")
-}
-
-// scaleFormer reports whether mineral name at saturation index si takes
-// part in the choice of the limiting mineral: minerals the inhibitor table
-// marks slow to form never do; minerals the table lists do; others only
-// when supersaturated (they have no inhibitor figure to compare with).
-func scaleFormer(name string, si float64) bool {
-	reach, listed := saturation.InhibitorReach(name)
-	if listed {
-		return !reach.Slow
-	}
-	return saturation.RiskBand(name, si) == saturation.Supersaturated
-}
-
-// risk is the rank of a mineral's saturation state: its band first, then,
-// within a band, its distance past the inhibitor limit (for the bands that
-// compare with it) or its saturation index.
-type risk struct {
-	band  saturation.Band
-	score float64
-}
-
-func riskOf(name string, si float64) risk {
-	b := saturation.RiskBand(name, si)
-	score := si
-	switch b {
-	case saturation.BeyondReach:
-		reach, _ := saturation.InhibitorReach(name)
-		score = si - reach.MaxSI
-	case saturation.Supersaturated:
-		// Without an inhibitor figure a mineral ranks with those within
-		// reach, by its saturation index: it does not outrank a more
-		// supersaturated calcite only for lacking a figure.
-		b = saturation.WithinReach
-	}
-	return risk{b, score}
-}
-
-func (r risk) compare(o risk) int {
-	if c := cmp.Compare(r.band, o.band); c != 0 {
-		return c
-	}
-	return cmp.Compare(r.score, o.score)
-}
-
-// limiting returns the limiting mineral of a result: among the scale
-// formers (see scaleFormer) that are not undersaturated, the one in the
-// highest risk band — beyond inhibitor reach first, ranked by the distance
-// past the limit; then supersaturated minerals with or without an
-// inhibitor figure together, ranked by saturation index. ok is false when
-// no mineral qualifies (the water is undersaturated in all of them).
-func limiting(r *saturation.Result) (m saturation.MineralResult, ok bool) {
-	if r == nil {
-		return m, false
-	}
-	var best risk
-	for _, x := range r.Minerals {
-		if !finite(x.SI) || !scaleFormer(x.Name, x.SI) || saturation.RiskBand(x.Name, x.SI) == saturation.Undersaturated {
-			continue
-		}
-		rk := riskOf(x.Name, x.SI)
-		if !ok || rk.compare(best) > 0 {
-			m, best, ok = x, rk, true
-		}
-	}
-	return m, ok
-}
-
-// maxChartPanels caps the minerals charted for one water.
-const maxChartPanels = 6
-
-// chartMinerals picks the minerals to chart for a water from its results
-// (the sample itself and the points of a sweep): the scale formers listed
-// in the inhibitor table that come within 1 SI unit of saturation
-// anywhere, and other minerals that are supersaturated anywhere. Of
-// minerals sharing a formula (calcite, aragonite and vaterite) only the
-// one with the highest saturation index is kept. The maxChartPanels with
-// the highest risk anywhere (see limiting) are chosen, and shown in order
-// of their risk in the first result (the sample itself). When none
-// qualifies, the two listed scale formers closest to saturation are taken,
-// so that a chart shows how far the water is from scaling.
-func chartMinerals(results []*saturation.Result) []saturation.MineralResult {
-	type agg struct {
-		m     saturation.MineralResult
-		maxSI float64
-		first risk // in results[0]
-		worst risk
-		order int
-	}
-	byName := map[string]*agg{}
-	var names []string
-	for ri, r := range results {
-		if r == nil {
-			continue
-		}
-		for _, m := range r.Minerals {
-			if !finite(m.SI) {
-				continue
-			}
-			a, seen := byName[m.Name]
-			if !seen {
-				a = &agg{m: m, maxSI: math.Inf(-1), first: risk{band: -1, score: math.Inf(-1)},
-					worst: risk{band: -1}, order: len(names)}
-				byName[m.Name] = a
-				names = append(names, m.Name)
-			}
-			if ri == 0 {
-				a.first = riskOf(m.Name, m.SI)
-			}
-			a.maxSI = math.Max(a.maxSI, m.SI)
-			if rk := riskOf(m.Name, m.SI); rk.compare(a.worst) > 0 {
-				a.worst = rk
-			}
-		}
-	}
-	qualifies := func(a *agg) bool {
-		reach, listed := saturation.InhibitorReach(a.m.Name)
-		if listed {
-			return !reach.Slow && a.maxSI >= -1
-		}
-		return saturation.RiskBand(a.m.Name, a.maxSI) == saturation.Supersaturated
-	}
-	listedFormer := func(a *agg) bool {
-		reach, listed := saturation.InhibitorReach(a.m.Name)
-		return listed && !reach.Slow
-	}
-	pick := func(keep func(*agg) bool) []*agg {
-		best := map[string]*agg{} // by formula
-		for _, n := range names {
-			a := byName[n]
-			if !keep(a) {
-				continue
-			}
-			key := a.m.Formula
-			if key == "" {
-				key = a.m.Name
-			}
-			if b, ok := best[key]; !ok || a.maxSI > b.maxSI {
-				best[key] = a
-			}
-		}
-		var out []*agg
-		for _, a := range best {
-			out = append(out, a)
-		}
-		slices.SortFunc(out, func(x, y *agg) int {
-			if c := y.worst.compare(x.worst); c != 0 {
-				return c
-			}
-			return cmp.Compare(x.order, y.order)
-		})
-		return out
-	}
-	chosen := pick(qualifies)
-	if len(chosen) == 0 {
-		chosen = pick(listedFormer)
-		slices.SortFunc(chosen, func(x, y *agg) int {
-			if c := cmp.Compare(y.maxSI, x.maxSI); c != 0 {
-				return c
-			}
-			return cmp.Compare(x.order, y.order)
-		})
-		chosen = chosen[:min(2, len(chosen))]
-	}
-	chosen = chosen[:min(maxChartPanels, len(chosen))]
-	slices.SortStableFunc(chosen, func(x, y *agg) int { return y.first.compare(x.first) })
-	out := make([]saturation.MineralResult, len(chosen))
-	for i, a := range chosen {
-		out[i] = a.m
-	}
-	return out
 }

@@ -7,12 +7,13 @@ import (
 	"strconv"
 	"strings"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
 
 // sampleWhere is the place of a sample in its file ("lab.csv, line 3").
-func sampleWhere(s ReportSample) string {
+func sampleWhere(s *plan.Sample) string {
 	if s.Line > 0 {
 		return fmt.Sprintf("%s, line %d", s.File, s.Line)
 	}
@@ -20,7 +21,7 @@ func sampleWhere(s ReportSample) string {
 }
 
 // sampleError is why a sample was not computed.
-func sampleError(s ReportSample) string {
+func sampleError(s *plan.Sample) string {
 	if s.Err != nil {
 		return s.Err.Error()
 	}
@@ -29,8 +30,8 @@ func sampleError(s ReportSample) string {
 
 // sectionHead starts the section of a sample: its number, anchor, name,
 // and where it comes from.
-func sectionHead(index, number int, s ReportSample) sampleView {
-	sv := sampleView{Number: number, Anchor: fmt.Sprintf("sample-%d", index+1), Name: s.Name}
+func sectionHead(index int, s *plan.Sample) sampleView {
+	sv := sampleView{Anchor: fmt.Sprintf("sample-%d", index+1), Name: s.Name}
 	var where []string
 	if w := sampleWhere(s); w != "" {
 		where = append(where, w)
@@ -45,7 +46,7 @@ func sectionHead(index, number int, s ReportSample) sampleView {
 // sectionTail adds the analysis as entered and as used, the data quality
 // and the warnings of a sample to its section; r is nil when the
 // equilibrium was not computed.
-func (b *builder) sectionTail(sv *sampleView, s ReportSample, r *saturation.Result) {
+func (b *builder) sectionTail(sv *sampleView, s *plan.Sample, r *saturation.Result) {
 	sv.Entered, sv.Components = entered(s.Input, r)
 	sv.BelowDetection = s.Input.BelowDetection
 	if len(sv.BelowDetection) > 0 {
@@ -63,8 +64,8 @@ func (b *builder) sectionTail(sv *sampleView, s ReportSample, r *saturation.Resu
 // be computed: the error, the ion balance, the composition chart, the
 // analysis as entered and as used, and the data quality, which may show
 // why.
-func (b *builder) failedSection(index, number int, s ReportSample) sampleView {
-	sv := sectionHead(index, number, s)
+func (b *builder) failedSection(index int, s *plan.Sample) sampleView {
+	sv := sectionHead(index, s)
 	sv.SpeciationError = sampleError(s)
 	sv.SpeciationErrorDetail = "No saturation index, chart of the saturation state or treatment answer is " +
 		"given for this sample. The analysis and its data quality below may show why: a poor ion balance, " +
@@ -80,9 +81,9 @@ func (b *builder) failedSection(index, number int, s ReportSample) sampleView {
 
 // section builds the full section of one computed sample. A chart that
 // cannot be drawn is left out with a note; it never fails the section.
-func (b *builder) section(index, number int, s ReportSample) sampleView {
+func (b *builder) section(index int, s *plan.Sample) sampleView {
 	r := s.Result
-	sv := sectionHead(index, number, s)
+	sv := sectionHead(index, s)
 
 	sv.Equilibrium = []kv{
 		{"Evaluated at", num(r.Temperature, 1) + " °C"},
@@ -113,10 +114,10 @@ func (b *builder) section(index, number int, s ReportSample) sampleView {
 			}
 		}
 		sv.Minerals = append(sv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
-			SI: signed(m.SI, 2), Limit: limit, LogK: num(m.LogK, 3), Band: bandChip(saturation.RiskBand(m.Name, m.SI))})
+			SI: signed(m.SI, 2), Limit: limit, LogK: num(m.LogK, 3), Band: b.band(m.Name, m.SI)})
 	}
 
-	sw := b.sweeps(index, s)
+	sw := b.sweeps(s)
 	sv.Facts = b.facts(s, sw)
 	sv.Findings = b.findings(s, sw)
 	sv.Charts, sv.ChartNotes = b.sampleCharts(index, s, sw)

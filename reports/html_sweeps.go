@@ -2,11 +2,10 @@ package reports
 
 import (
 	"fmt"
-	"math"
 	"regexp"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
-	"scalerisk/water"
 )
 
 // digits matches the numbers of a note.
@@ -63,63 +62,27 @@ type sweepSet struct {
 	firstErr   error // of the first point that could not be computed
 }
 
-// Points of the sweeps.
-const (
-	tempPoints  = 15
-	cyclePoints = 15
-	dosePoints  = 13
-	gridSide    = 8
-)
-
-func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
+// sweeps gathers the sweeps of a plan for the charts: the first error of
+// its sweep steps, the points failed, and the minerals to chart.
+func (b *builder) sweeps(s *plan.Sample) *sweepSet {
 	r := s.Result
-	opt := b.o.Speciation
-	sw := &sweepSet{bulk: r.Temperature, maxCycles: b.o.maxCycles()}
-	sw.hot = b.o.skin()
-	if sw.hot < sw.bulk+5 {
-		sw.hot = sw.bulk + 20
+	sw := &sweepSet{bulk: r.Temperature, hot: s.Temperature.To, temp: s.Temperature.Points,
+		cycles: s.Cycles.Points, maxCycles: s.Cycles.To, fromSearch: s.Cycles.FromSearch,
+		dose: s.Dose.Points, maxDose: s.Dose.To}
+	if s.Temperature.Points == nil {
+		sw.hot = b.o.Plan.HotEnd(r.Temperature)
 	}
-	temps := saturation.Range(sw.bulk, sw.hot, tempPoints)
-	var err error
-	if sw.temp, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryTemperature, Values: temps}, nil, opt); err != nil {
-		sw.err = err
-		return sw
+	if s.Cycles.Points == nil {
+		sw.maxCycles = b.o.Plan.Cycles()
 	}
-	if t := s.Treatment; t != nil && t.Cycles != nil && len(t.Cycles.Points) > 1 {
-		// The points of the highest-cycles search, under its carbonate rule.
-		sw.fromSearch = true
-		sw.maxCycles = 1
-		for _, p := range t.Cycles.Points {
-			sw.cycles = append(sw.cycles, saturation.Point{X: p.Cycles, Y: math.NaN(), Result: p.Result, Err: p.Err})
-			sw.maxCycles = math.Max(sw.maxCycles, p.Cycles)
-		}
-	} else {
-		sw.cycles, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryCycles,
-			Values: saturation.Range(1, sw.maxCycles, cyclePoints), Rule: b.o.CyclesRule}, nil, opt)
-		if err != nil {
+	if w := s.Window; w != nil {
+		sw.gridT, sw.gridC, sw.grid = w.Temperatures, w.Cycles, w.Points
+	}
+	for _, part := range []string{"temperature sweep", "cycles sweep", "dose sweep", "operating window"} {
+		if err := s.PartErr(part); err != nil && sw.err == nil {
 			sw.err = err
-			return sw
 		}
 	}
-	sw.maxDose = b.o.MaxDose
-	if sw.maxDose == 0 {
-		sw.maxDose = autoDose(r, b.reagent, b.o.Strength)
-	}
-	sw.dose, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryDose,
-		Values: saturation.Range(0, sw.maxDose, dosePoints), Reagent: b.reagent, Strength: b.o.Strength}, nil, opt)
-	if err != nil {
-		sw.err = err
-		return sw
-	}
-	sw.gridT = saturation.Range(sw.bulk, sw.hot, gridSide)
-	sw.gridC = saturation.Range(1, sw.maxCycles, gridSide)
-	sw.grid, err = saturation.Sweep(s.Input, saturation.Axis{Var: saturation.VaryTemperature, Values: sw.gridT},
-		&saturation.Axis{Var: saturation.VaryCycles, Values: sw.gridC, Rule: b.o.CyclesRule}, opt)
-	if err != nil {
-		sw.err = err
-		return sw
-	}
-	results := []*saturation.Result{r}
 	for _, pts := range [][]saturation.Point{sw.temp, sw.cycles, sw.dose, sw.grid} {
 		for _, p := range pts {
 			sw.total++
@@ -128,31 +91,25 @@ func (b *builder) sweeps(index int, s ReportSample) *sweepSet {
 				if sw.firstErr == nil {
 					sw.firstErr = p.Err
 				}
-				continue
 			}
-			results = append(results, p.Result)
 		}
 	}
-	sw.minerals = chartMinerals(results)
+	for _, name := range s.Minerals {
+		if m, ok := mineralOf(r, name); ok {
+			sw.minerals = append(sw.minerals, m)
+		}
+	}
 	return sw
 }
 
-// autoDoseShare is the share of the alkalinity the automatic dose axis
-// reaches: most of it, but short of the steep fall of pH near the end
-// point.
-const autoDoseShare = 0.8
-
-// autoDose is the end of the dose axis, mg/L of product: the dose that
-// would change the alkalinity of r by autoDoseShare, rounded up to a
-// round number; 100 mg/L when the reagent does not change alkalinity or
-// the water has none.
-func autoDose(r *saturation.Result, reagent water.Reagent, strength float64) float64 {
-	alk := r.Analysis.AlkalinityAsCaCO3()
-	factor := math.Abs(reagent.AlkalinityFactor(strength))
-	if !finite(alk) || alk <= 0 || !(factor > 0) {
-		return 100
+// mineralOf returns the result of mineral name in r.
+func mineralOf(r *saturation.Result, name string) (saturation.MineralResult, bool) {
+	for _, m := range r.Minerals {
+		if m.Name == name {
+			return m, true
+		}
 	}
-	return roundUp(autoDoseShare * alk / factor)
+	return saturation.MineralResult{}, false
 }
 
 // sweepFailed reports whether any point of a sweep failed.

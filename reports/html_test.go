@@ -10,9 +10,11 @@ import (
 	"path/filepath"
 	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
+	"scalerisk/plan"
 	"scalerisk/reports"
 	"scalerisk/saturation"
 	"scalerisk/water"
@@ -241,12 +243,28 @@ func TestHTMLTreatment(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	samples := reports.ReportSamples(as)
-	samples[0].Treatment = &reports.Treatment{Cycles: cycles, CyclesRule: "closed"}
-	samples[1].Treatment = &reports.Treatment{Dose: dose, Notes: []string{"an invented note"}}
-	page := render(t, reports.Report{Samples: samples})
+	settings := plan.Settings{Target: &target, Profile: &profile, CyclesRule: &saturation.CarbonateRule{Name: "closed"}}
+	var buf bytes.Buffer
+	hw, err := reports.NewHTMLWriter(reports.Report{Options: reports.HTMLOptions{Plan: settings}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i, a := range as {
+		p := plan.Compute(a, settings)
+		if i == 1 {
+			p.Errors = append(p.Errors, plan.Error{Part: "blend", Err: errors.New("an invented failure")})
+		}
+		if err := hw.Add(p); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if err := hw.Finish(&buf); err != nil {
+		t.Fatal(err)
+	}
+	page := buf.String()
+	_ = cycles
 	for _, want := range []string{"Dose to target", "LSI +0.50", "sulfuric acid (H2SO4), 93 % product",
-		"side effects", "Highest cycles of concentration</h4>", "no-inhibitor", "an invented note",
+		"side effects", "Highest cycles of concentration</h4>", "no-inhibitor", "The blend could not be computed: an invented failure.",
 		`"name":"to LSI +0.50"`, "highest cycles"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("page lacks %q", want)
@@ -258,6 +276,24 @@ func TestHTMLTreatment(t *testing.T) {
 	if want := fmt.Sprintf("%.1f mg/L of product", dose.Dose); !strings.Contains(page, want) {
 		t.Errorf("page lacks the dose %q", want)
 	}
+}
+
+// writePlans writes the report of plans to path through an HTMLWriter.
+func writePlans(path string, r reports.Report, plans []*plan.Sample) error {
+	var buf bytes.Buffer
+	hw, err := reports.NewHTMLWriter(r)
+	if err != nil {
+		return err
+	}
+	for _, p := range plans {
+		if err := hw.Add(p); err != nil {
+			return err
+		}
+	}
+	if err := hw.Finish(&buf); err != nil {
+		return err
+	}
+	return os.WriteFile(path, buf.Bytes(), 0o644)
 }
 
 func TestHTMLFailedSamples(t *testing.T) {
@@ -313,21 +349,25 @@ func TestHTMLSweepFailures(t *testing.T) {
 	}
 	samples := reports.ReportSamples(as)
 
-	swept := samples[0]
-	swept.Name = "soft water, cycles not computed"
 	invented := errors.New("invented failure of a cycles point")
-	swept.Treatment = &reports.Treatment{Cycles: &saturation.CyclesResult{MaxCycles: 3,
-		Points: []saturation.CyclePoint{{Cycles: 1, Err: invented}, {Cycles: 2, Err: invented}, {Cycles: 3, Err: invented}}}}
-
 	failed := samples[0]
 	failed.Name = "soft water, not computed"
 	failed.Line = 7
 	failed.Result, failed.Indices, failed.Precipitation = nil, nil, nil
 	failed.Err = errors.New("speciation did not converge (an invented failure)")
-	samples = append(samples, swept, failed)
 
 	path := filepath.Join(t.TempDir(), "waters.html")
-	if err := reports.WriteHTMLFile(path, reports.Report{Inputs: []string{"waters.csv"}, Samples: samples}); err != nil {
+	var plans []*plan.Sample
+	for _, s := range samples {
+		plans = append(plans, plan.Compute(s.Assessment, plan.Settings{}))
+	}
+	swept := plan.Compute(samples[0].Assessment, plan.Settings{})
+	swept.Name = "soft water, cycles not computed"
+	swept.Cycles = plan.Sweep{From: 1, To: 3, Failed: 3, FirstErr: invented, FromSearch: true,
+		Points: []saturation.Point{{X: 1, Err: invented}, {X: 2, Err: invented}, {X: 3, Err: invented}}}
+	plans = append(plans, swept, plan.Compute(failed.Assessment, plan.Settings{}))
+	samples = append(samples, reports.ReportSample{Assessment: swept.Assessment}, failed)
+	if err := writePlans(path, reports.Report{Inputs: []string{"waters.csv"}}, plans); err != nil {
 		t.Fatalf("the report was not written: %v", err)
 	}
 	raw, err := os.ReadFile(path)
@@ -345,22 +385,21 @@ func TestHTMLSweepFailures(t *testing.T) {
 		}
 	}
 
-	// A section per sample, in input order.
-	sections := regexp.MustCompile(`<section class="sample" id="(sample-\d+)">\s*<h2><span class="num">\d+</span>([^<]*)</h2>`).
+	// A section per sample (worst first), its anchor naming its place in
+	// the input.
+	sections := regexp.MustCompile(`<section class="sample" id="sample-(\d+)">\s*<h2><span class="num">\d+</span>([^<]*)</h2>`).
 		FindAllStringSubmatch(page, -1)
 	if len(sections) != len(samples) {
 		t.Fatalf("%d sample sections, want %d", len(sections), len(samples))
 	}
-	for i, s := range samples {
-		if got, want := sections[i][2], html.EscapeString(s.Name); got != want {
-			t.Errorf("section %d is %q, want %q", i+1, got, want)
-		}
-		if got, want := sections[i][1], fmt.Sprintf("sample-%d", i+1); got != want {
-			t.Errorf("section %d has anchor %q, want %q", i+1, got, want)
+	for _, sec := range sections {
+		i, _ := strconv.Atoi(sec[1])
+		if got, want := sec[2], html.EscapeString(samples[i-1].Name); got != want {
+			t.Errorf("section sample-%d is %q, want %q", i, got, want)
 		}
 	}
 	section := func(i int) string {
-		start := strings.Index(page, `id="`+sections[i][1]+`"`)
+		start := strings.Index(page, fmt.Sprintf(`id="sample-%d"`, i+1))
 		end := strings.Index(page[start:], "</section>")
 		return page[start : start+end]
 	}
@@ -439,10 +478,11 @@ func TestHTMLDetailLimit(t *testing.T) {
 }
 
 func TestHTMLOptionsCheck(t *testing.T) {
-	for _, o := range []reports.HTMLOptions{
+	for _, s := range []plan.Settings{
 		{SkinTemperature: -1}, {SkinTemperature: 200}, {MaxCycles: 0.5}, {MaxCycles: 80},
-		{MaxDose: -5}, {Reagent: "vinegar"}, {Strength: 120},
+		{MaxDose: -5}, {Strength: 120}, {Partner: &water.Analysis{}, BlendFraction: 1.5},
 	} {
+		o := reports.HTMLOptions{Plan: s}
 		if err := o.Check(); err == nil {
 			t.Errorf("Check(%+v) = nil, want an error", o)
 		}
@@ -476,7 +516,7 @@ func TestWriteHTMLFile(t *testing.T) {
 	// A failure (an option out of range) leaves the earlier file as it was
 	// and no temporary file behind.
 	bad := r
-	bad.Options.MaxCycles = -3
+	bad.Options.Plan.MaxCycles = -3
 	if err := reports.WriteHTMLFile(path, bad); err == nil {
 		t.Fatal("no error for bad options")
 	}

@@ -2,47 +2,15 @@ package reports
 
 import (
 	"cmp"
+	"errors"
 	"fmt"
 	"slices"
 	"strings"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
-
-// Treatment holds the answers of the treatment searches for one sample of
-// an HTML report. The report only presents them; the command that ran the
-// searches fills the parts it has. Every part is optional: a nil pointer or
-// an empty slice leaves its table out. (The classic indices and the scale
-// that could form come with the assessment itself: Assessment.Indices and
-// Assessment.Precipitation.)
-type Treatment struct {
-	// Dose is the dose that brings the sample to a target
-	// (saturation.DoseToTarget). Its dose is marked on the dose chart when
-	// the reagent is the chart's.
-	Dose *saturation.DoseResult
-	// Cycles is the highest cycles of concentration under a limit profile
-	// (saturation.MaxCycles). When it has points, the cycles chart shows
-	// them (under its carbonate rule) instead of a sweep of its own, and
-	// marks the highest cycles.
-	Cycles *saturation.CyclesResult
-	// CyclesRule names the carbonate rule Cycles was computed under, in
-	// words ("closed", "air", "ph=7.8").
-	CyclesRule string
-	// Blends lists blends of the sample with other waters (report
-	// --blend-with).
-	Blends []BlendAnswer
-	// Notes are remarks on the searches a reader should see, shown as
-	// given.
-	Notes []string
-}
-
-// BlendAnswer is a blend of the sample with a partner water.
-type BlendAnswer struct {
-	Partner  string  // name of the other water
-	Fraction float64 // share of the sample in the blend, 0–1 by volume
-	Result   *saturation.Result
-}
 
 // treatmentView is the treatment part of a sample's section.
 type treatmentView struct {
@@ -119,13 +87,14 @@ func quantityLabel(q string) string {
 
 // treatment lays out the treatment answers of a sample; nil when it has
 // none.
-func (b *builder) treatment(s ReportSample) *treatmentView {
-	t := s.Treatment
-	if t == nil {
-		return nil
+func (b *builder) treatment(s *plan.Sample) *treatmentView {
+	tv := &treatmentView{}
+	for _, part := range []string{"dose search", "highest-cycles search", "blend"} {
+		if err := s.PartErr(part); err != nil {
+			tv.Notes = append(tv.Notes, searchFailure(part, err))
+		}
 	}
-	tv := &treatmentView{Notes: t.Notes}
-	if d := t.Dose; d != nil {
+	if d := s.DoseAnswer; d != nil {
 		reached := "yes"
 		if !d.Reached {
 			reached = "no (see the note below)"
@@ -144,11 +113,11 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 				kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2)})
 			for _, m := range d.After.Result.Minerals {
 				before, ok := d.Before.Result.SI(m.Name)
-				if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !scaleFormer(m.Name, m.SI) {
+				if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !b.scaleFormer(m.Name, m.SI) {
 					continue
 				}
 				tv.Effects = append(tv.Effects, effectRow{Mineral: mineralLabel(m.Name), Before: signed(before, 2),
-					After: signed(m.SI, 2), Band: bandChip(saturation.RiskBand(m.Name, m.SI))})
+					After: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
 			}
 		}
 		// The reagent's caution is shown in its own box below.
@@ -162,7 +131,7 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 			tv.Caution = sentence(c)
 		}
 	}
-	if c := t.Cycles; c != nil {
+	if c := s.CyclesAnswer; c != nil {
 		highest, limiting := num(c.MaxCycles, 2), "none within the range searched"
 		var exceeded []string
 		for _, q := range c.Exceeded {
@@ -179,9 +148,7 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 			{"Limited by", limiting},
 			{"Limit profile", c.Profile.Name},
 		}
-		if t.CyclesRule != "" {
-			tv.Cycles = append(tv.Cycles, kv{"Carbonate system", t.CyclesRule})
-		}
+		tv.Cycles = append(tv.Cycles, kv{"Carbonate system", b.ruleName()})
 		for _, l := range c.Profile.Limits {
 			if l.Quantity == c.Limiting {
 				tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s ≤ %g (%s)", quantityLabel(l.Quantity), l.Max, l.Source)})
@@ -198,23 +165,41 @@ func (b *builder) treatment(s ReportSample) *treatmentView {
 			tv.CycleNotes = append(tv.CycleNotes, w)
 		}
 	}
-	for _, bl := range t.Blends {
+	for _, bl := range s.Blends {
 		bv := blendView{Title: fmt.Sprintf("%s %% of this water with %s %% of %s", num(100*bl.Fraction, 0),
 			num(100*(1-bl.Fraction), 0), bl.Partner)}
 		if bl.Result != nil {
 			ms := slices.Clone(bl.Result.Minerals)
 			slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
 			for _, m := range ms {
-				if !finite(m.SI) || !scaleFormer(m.Name, m.SI) || len(bv.Minerals) >= 6 {
+				if !finite(m.SI) || !b.scaleFormer(m.Name, m.SI) || len(bv.Minerals) >= 6 {
 					continue
 				}
 				bv.Minerals = append(bv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
-					SI: signed(m.SI, 2), Band: bandChip(saturation.RiskBand(m.Name, m.SI))})
+					SI: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
 			}
 		}
 		tv.Blends = append(tv.Blends, bv)
 	}
+	if tv.Dose == nil && tv.Cycles == nil && tv.Blends == nil && tv.Notes == nil {
+		return nil
+	}
 	return tv
+}
+
+// searchFailure words a treatment search that could not be computed.
+func searchFailure(part string, err error) string {
+	var pe plan.Error
+	if errors.As(err, &pe) {
+		err = pe.Err
+	}
+	switch part {
+	case "dose search":
+		return "The dose to the target could not be computed: " + sentence(err.Error())
+	case "highest-cycles search":
+		return "The highest cycles of concentration could not be computed: " + sentence(err.Error())
+	}
+	return "The blend could not be computed: " + sentence(err.Error())
 }
 
 // sentence returns s with a full stop at the end.

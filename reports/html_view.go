@@ -3,8 +3,8 @@ package reports
 import (
 	"encoding/json"
 	"html/template"
-	"strings"
 
+	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
 )
@@ -53,7 +53,10 @@ type overviewRow struct {
 
 // failedRow is a sample that was not computed; Anchor links its section
 // (empty when it has none, as for a row the input could not give).
-type failedRow struct{ Name, Where, Error, Anchor string }
+type failedRow struct {
+	Name, Where, Error, Anchor string
+	index                      int
+}
 
 type kv struct{ Key, Value string }
 
@@ -124,99 +127,41 @@ type sourceRow struct{ Name, Formula, LogK, Range, Source string }
 
 type reachRow struct{ Name, Limit, Source string }
 
-// builder collects the chart options while the view is built.
+// builder lays out the view of plans and collects the options of their
+// charts.
 type builder struct {
-	r        Report
-	o        HTMLOptions
-	reagent  water.Reagent
-	options  map[string]json.RawMessage
-	charted  map[string]bool // minerals that appear in a chart
-	shown    map[string]saturation.MineralResult
-	models   map[string]bool
-	failures int
+	r       Report
+	o       HTMLOptions
+	reagent water.Reagent
+	profile saturation.LimitProfile // of the bands and limits
+	options map[string]json.RawMessage
+	shown   map[string]saturation.MineralResult
+	models  map[string]bool
 }
 
-func buildView(r Report) (*pageView, error) {
-	reagent, err := water.LookupReagent(r.Options.reagentName())
-	if err != nil {
-		return nil, err
-	}
-	b := &builder{r: r, o: r.Options, reagent: reagent, options: map[string]json.RawMessage{},
-		charted: map[string]bool{}, shown: map[string]saturation.MineralResult{}, models: map[string]bool{}}
-	v := &pageView{
-		Title: r.Title, Client: r.Client, Date: r.Date, Inputs: r.Inputs,
-		SampleCount: len(r.Samples), Caution: Caution, Cautions: b.cautions(),
-		EChartsJS: template.JS(echartsJS), EChartsVersion: EChartsVersion,
-		EChartsLicense: echartsLicense, EChartsNotice: strings.TrimSpace(echartsNotice),
-	}
-	if v.Title == "" {
-		v.Title = DefaultReportTitle
-	}
-	for _, bd := range allBands {
-		st := bandStyleOf(bd)
-		v.Bands = append(v.Bands, bandRow{Chip: chip{bd.String(), st.Class}, Meaning: bandMeaning(bd)})
-	}
-	detailed := 0
-	inBudget := func() bool { return r.Options.Detail == 0 || detailed < r.Options.Detail }
-	for i, s := range r.Samples {
-		if s.Result == nil {
-			// A sample whose equilibrium could not be computed still gets
-			// its section (the error, the analysis, the data quality);
-			// a row the input could not give has no analysis to show.
-			row := failedRow{Name: s.Name, Where: sampleWhere(s), Error: sampleError(s)}
-			if !s.BadInput && inBudget() {
-				detailed++
-				sec := b.failedSection(i, detailed, s)
-				row.Anchor = sec.Anchor
-				v.Sections = append(v.Sections, sec)
-			}
-			v.Failed = append(v.Failed, row)
-			continue
-		}
-		v.ComputedCount++
-		b.models[s.Result.Activity.String()] = true
-		for _, m := range s.Result.Minerals {
-			if _, ok := b.shown[m.Name]; !ok {
-				b.shown[m.Name] = m
-			}
-		}
-		anchor := ""
-		if inBudget() {
-			detailed++
-			sec := b.section(i, detailed, s)
-			anchor = sec.Anchor
-			v.Sections = append(v.Sections, sec)
-		} else {
-			v.NotDetailed++
-		}
-		v.Overview = append(v.Overview, overviewOf(s, anchor))
-	}
-	v.Time, v.TimeNote = b.timeCharts()
-	v.Methods = b.methods()
-	v.ChartCount = len(b.options)
-	opt, err := json.Marshal(b.options) // keys sorted: deterministic
-	if err != nil {
-		return nil, err
-	}
-	v.ChartOptions = template.JS(opt)
-	return v, nil
+func newBuilder(r Report) *builder {
+	return &builder{r: r, o: r.Options, reagent: r.Options.Plan.ReagentOrDefault(),
+		profile: r.Options.Plan.LimitProfile(), options: map[string]json.RawMessage{},
+		shown: map[string]saturation.MineralResult{}, models: map[string]bool{}}
 }
 
-func overviewOf(s ReportSample, anchor string) overviewRow {
+// ruleName words the carbonate rule of the cycles figures.
+func (b *builder) ruleName() string { return b.o.Plan.Rule().Name }
+
+func (b *builder) overviewOf(s *plan.Sample) overviewRow {
 	r := s.Result
-	row := overviewRow{Name: s.Name, Anchor: anchor, Date: s.Input.Date,
+	row := overviewRow{Name: s.Name, Date: s.Input.Date,
 		Temperature: num(r.Temperature, 1), PH: num(r.PH, 2), IonicStrength: sigText(r.IonicStrength, 3)}
 	row.Balance = balanceChip(s.Quality)
-	if m, ok := limiting(r); ok {
+	if len(s.Ranking) > 0 {
+		m := s.Ranking[0]
 		row.Limiting, row.LimitingSI = mineralLabel(m.Name), signed(m.SI, 2)
-		row.Band = bandChip(saturation.RiskBand(m.Name, m.SI))
+		row.Band = b.bandChip(m.Band)
 	} else {
 		row.Limiting = "none supersaturated"
 	}
 	return row
 }
-
-func bandChip(b saturation.Band) chip { return chip{b.String(), bandStyleOf(b).Class} }
 
 func balanceChip(q water.Quality) chip {
 	if !finite(q.BalancePercent) {

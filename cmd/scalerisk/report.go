@@ -5,11 +5,11 @@ import (
 	"fmt"
 	"io"
 	"io/fs"
-	"slices"
 	"time"
 
 	"github.com/spf13/cobra"
 
+	"scalerisk/plan"
 	"scalerisk/reports"
 	"scalerisk/saturation"
 	"scalerisk/water"
@@ -98,47 +98,13 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output == "" {
 		return badInput(errors.New("no output file: give -o report.html (or -o - for standard output)"))
 	}
-	hopt := reports.HTMLOptions{Speciation: opt, Detection: ropt.Detection, SkinTemperature: o.common.skin,
-		MaxCycles: o.maxCycles, Reagent: o.reagent, Strength: o.strength, MaxDose: o.maxDose, Detail: o.detail}
+	settings, err := o.settings(opt, ropt, stdin)
+	if err != nil {
+		return err
+	}
+	hopt := reports.HTMLOptions{Plan: settings, Detection: ropt.Detection, Detail: o.detail}
 	if err := hopt.Check(); err != nil {
 		return badInput(err)
-	}
-	reagent, err := water.LookupReagent(o.reagent)
-	if err != nil {
-		return badInput(err)
-	}
-	var target *saturation.Target
-	if o.target != "none" {
-		t, err := saturation.ParseTarget(o.target, opt.Model)
-		if err != nil {
-			return badInput(err)
-		}
-		target = &t
-	}
-	var profile *saturation.LimitProfile
-	rule, err := saturation.ParseCarbonateRule(o.carbonate)
-	if err != nil {
-		return badInput(err)
-	}
-	hopt.CyclesRule = &rule
-	if o.limits != "none" {
-		p, err := loadProfile(o.limits, opt.Model)
-		if err != nil {
-			return err
-		}
-		profile = &p
-	}
-
-	var partner *water.Analysis
-	if o.blendWith != "" {
-		if !(o.blendFraction >= 0 && o.blendFraction <= 1) {
-			return badInput(fmt.Errorf("--blend-fraction %g: want a share from 0 to 1", o.blendFraction))
-		}
-		p, err := firstSample(o.blendWith, stdin, ropt)
-		if err != nil {
-			return err
-		}
-		partner = &p
 	}
 
 	r, src, err := o.common.runner(cmd, args, stdin, ropt)
@@ -153,45 +119,40 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	default:
 		rep.Date = o.date
 	}
-	// Each worker assesses a sample and runs its treatment searches; the
-	// samples are kept in input order for the report.
-	err = runBatch(r, src, batch[reports.ReportSample]{
-		newWorker: func() func(string, water.Record) (reports.ReportSample, error) {
+	hw, err := reports.NewHTMLWriter(rep)
+	if err != nil {
+		return badInput(err)
+	}
+	// Each worker assesses a sample and computes its plan (sweeps,
+	// searches, blend); the writer lays the plans out in input order.
+	samples := 0
+	err = runBatch(r, src, batch[*plan.Sample]{
+		newWorker: func() func(string, water.Record) (*plan.Sample, error) {
 			sp := saturation.NewSpeciator(opt.Model)
-			return func(file string, rec water.Record) (reports.ReportSample, error) {
+			return func(file string, rec water.Record) (*plan.Sample, error) {
 				a := sp.AssessRecord(file, rec, opt)
 				a.Flow = o.common.flow
-				s := reports.ReportSample{Assessment: a}
-				if a.Result != nil && (target != nil || profile != nil || partner != nil) {
-					s.Treatment = treatmentOf(a, reagent, o.strength, target, profile, rule, o.carbonate, o.maxCycles, opt)
-					if partner != nil {
-						s.Treatment.Blends = append(s.Treatment.Blends, blendOf(a, *partner, o.blendFraction, opt))
-					}
-				}
-				return s, a.Err
+				return plan.Compute(a, settings), a.Err
 			}
 		},
-		bad: func(file string, rec water.Record) reports.ReportSample {
-			return reports.ReportSample{Assessment: saturation.Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err, BadInput: true}}
+		bad: func(file string, rec water.Record) *plan.Sample {
+			return &plan.Sample{Assessment: saturation.Assessment{Name: rec.Name, File: file, Line: rec.Line, Err: rec.Err, BadInput: true}}
 		},
-		write: func(s reports.ReportSample) error {
-			if !slices.Contains(rep.Inputs, s.File) {
-				rep.Inputs = append(rep.Inputs, s.File)
-			}
-			rep.Samples = append(rep.Samples, s)
-			return nil
+		write: func(p *plan.Sample) error {
+			samples++
+			return hw.Add(p)
 		},
 	})
 	if err != nil {
 		return &exitError{code: exitInternal, err: err}
 	}
-	if len(rep.Samples) == 0 {
+	if samples == 0 {
 		return &exitError{code: exitBadInput, err: errors.New("no samples to report"), quiet: r.problems > 0}
 	}
 	if o.output == "-" {
-		err = reports.WriteHTML(cmd.OutOrStdout(), rep)
+		err = hw.Finish(cmd.OutOrStdout())
 	} else {
-		err = reports.WriteHTMLFile(o.output, rep)
+		err = reports.WriteFileAtomic(o.output, hw.Finish)
 	}
 	if err != nil {
 		code := exitInternal
@@ -201,44 +162,49 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		return &exitError{code: code, err: fmt.Errorf("writing the report: %w", err)}
 	}
 	if o.output != "-" {
-		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, len(rep.Samples))
+		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, samples)
 	}
 	return r.exit()
 }
 
-// blendOf blends the sample with the partner water at fraction f (the
-// sample's share) and speciates the blend.
-func blendOf(a saturation.Assessment, partner water.Analysis, f float64, opt saturation.Options) reports.BlendAnswer {
-	ans := reports.BlendAnswer{Partner: partner.Name, Fraction: f}
-	w, err := saturation.BlendWaters([]water.Analysis{a.Input, partner}, []float64{f, 1 - f}, opt)
-	if err == nil {
-		ans.Result, _ = saturation.Speciate(w, opt)
+// settings turns the flags of report into what the plan of every sample
+// computes.
+func (o *reportOptions) settings(opt saturation.Options, ropt water.ReadOptions, stdin io.Reader) (plan.Settings, error) {
+	s := plan.Settings{Speciation: opt, SkinTemperature: o.common.skin, MaxCycles: o.maxCycles,
+		Strength: o.strength, MaxDose: o.maxDose}
+	reagent, err := water.LookupReagent(o.reagent)
+	if err != nil {
+		return s, badInput(err)
 	}
-	return ans
-}
-
-// treatmentOf runs the treatment searches of one sample: the dose of
-// reagent to target and the highest cycles under profile. A search that
-// fails leaves its part out and says why in the notes.
-func treatmentOf(a saturation.Assessment, reagent water.Reagent, strength float64, target *saturation.Target,
-	profile *saturation.LimitProfile, rule saturation.CarbonateRule, ruleName string, maxCycles float64,
-	opt saturation.Options) *reports.Treatment {
-	t := &reports.Treatment{}
-	if target != nil {
-		d, err := saturation.DoseToTarget(a.Input, reagent, strength, *target, opt)
+	s.Reagent = reagent
+	if o.target != "none" {
+		t, err := saturation.ParseTarget(o.target, opt.Model)
 		if err != nil {
-			t.Notes = append(t.Notes, fmt.Sprintf("The dose to %s could not be computed: %v", target, err))
-		} else {
-			t.Dose = d
+			return s, badInput(err)
 		}
+		s.Target = &t
 	}
-	if profile != nil {
-		c, err := saturation.MaxCycles(a.Input, *profile, rule, maxCycles, 0, opt)
+	rule, err := saturation.ParseCarbonateRule(o.carbonate)
+	if err != nil {
+		return s, badInput(err)
+	}
+	s.CyclesRule = &rule
+	if o.limits != "none" {
+		p, err := loadProfile(o.limits, opt.Model)
 		if err != nil {
-			t.Notes = append(t.Notes, fmt.Sprintf("The highest cycles could not be computed: %v", err))
-		} else {
-			t.Cycles, t.CyclesRule = c, ruleName
+			return s, err
 		}
+		s.Profile = &p
 	}
-	return t
+	if o.blendWith != "" {
+		if !(o.blendFraction >= 0 && o.blendFraction <= 1) {
+			return s, badInput(fmt.Errorf("--blend-fraction %g: want a share from 0 to 1", o.blendFraction))
+		}
+		p, err := firstSample(o.blendWith, stdin, ropt)
+		if err != nil {
+			return s, err
+		}
+		s.Partner, s.BlendFraction = &p, o.blendFraction
+	}
+	return s, nil
 }

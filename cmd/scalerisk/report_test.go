@@ -42,7 +42,10 @@ func TestReportStdoutAndOptions(t *testing.T) {
 	if !strings.HasPrefix(s, "<!DOCTYPE html>") {
 		t.Fatalf("-o - did not write the page to standard output: %.80q", s)
 	}
-	for _, absent := range []string{"Dose to target", "Highest cycles of concentration</h4>", `data-chart="s2-`, "<dt>Date</dt>"} {
+	if n := strings.Count(s, `<section class="sample"`); n != 1 {
+		t.Errorf("%d sample sections with --detail 1, want 1", n)
+	}
+	for _, absent := range []string{"Dose to target", "Highest cycles of concentration</h4>", "<dt>Date</dt>"} {
 		if strings.Contains(s, absent) {
 			t.Errorf("page holds %q though the flags left it out", absent)
 		}

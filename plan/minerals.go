@@ -1,0 +1,102 @@
+package plan
+
+import (
+	"slices"
+
+	"scalerisk/saturation"
+	"scalerisk/water"
+)
+
+// ChartOrder is the fixed order of the minerals a report charts: the scale
+// formers that matter for a cooling or process water (common practice:
+// calcium carbonate, calcium sulfate and silica first, then the sulfates of
+// barium and strontium, calcium fluoride and calcium phosphate), each with
+// the components the laboratory must report for it to be charted.
+var ChartOrder = []struct {
+	Mineral string
+	Needs   []water.Component
+}{
+	{"calcite", []water.Component{water.Ca}},
+	{"gypsum", []water.Component{water.Ca, water.S}},
+	{"silica_amorphous", []water.Component{water.Si}},
+	{"barite", []water.Component{water.Ba, water.S}},
+	{"celestite", []water.Component{water.Sr, water.S}},
+	{"fluorite", []water.Component{water.Ca, water.F}},
+	{"tricalcium_phosphate", []water.Component{water.Ca, water.P}},
+}
+
+// mineralsStep chooses the minerals the charts of a sample show: those of
+// ChartOrder whose components were reported, then any other mineral past
+// its limit (or supersaturated without one, when not slow to form) in the
+// sample or anywhere on its sweeps, in table order.
+func mineralsStep(p *Sample, s Settings) error {
+	prof := s.LimitProfile()
+	var out []string
+	for _, c := range ChartOrder {
+		reported := true
+		for _, comp := range c.Needs {
+			reported = reported && p.Input.Measured[comp]
+		}
+		if _, ok := p.Result.SI(c.Mineral); ok && reported {
+			out = append(out, c.Mineral)
+		}
+	}
+	past := map[string]bool{}
+	results := []*saturation.Result{p.Result}
+	for _, sw := range []Sweep{p.Temperature, p.Cycles, p.Dose} {
+		for _, pt := range sw.Points {
+			results = append(results, pt.Result)
+		}
+	}
+	for _, r := range results {
+		if r == nil {
+			continue
+		}
+		for _, m := range r.Minerals {
+			if finite(m.SI) && saturation.BandUnder(prof, m.Name, m.SI) == saturation.BeyondReach {
+				past[m.Name] = true
+			}
+		}
+	}
+	for _, m := range p.Result.Minerals { // table order
+		if past[m.Name] && !slices.Contains(out, m.Name) {
+			out = append(out, m.Name)
+		}
+	}
+	p.Minerals = out
+	return nil
+}
+
+// Pass is a mineral that goes past its limit along a sweep.
+type Pass struct {
+	Sweep   string // "temperature", "cycles" or "dose"
+	Mineral string
+	X       float64 // the first point computed past the limit, in the axis unit
+	AtStart bool    // already past at the first point
+}
+
+// passesStep finds, along the temperature, cycles and dose sweeps, the
+// minerals that go past their limit under the settings' profile, and the
+// first point where they do.
+func passesStep(p *Sample, s Settings) error {
+	prof := s.LimitProfile()
+	for _, sw := range []struct {
+		name string
+		sw   Sweep
+	}{{"temperature", p.Temperature}, {"cycles", p.Cycles}, {"dose", p.Dose}} {
+		seen := map[string]bool{}
+		for k, pt := range sw.sw.Points {
+			if pt.Result == nil {
+				continue
+			}
+			for _, m := range pt.Result.Minerals {
+				if seen[m.Name] || !finite(m.SI) || saturation.BandUnder(prof, m.Name, m.SI) != saturation.BeyondReach {
+					continue
+				}
+				seen[m.Name] = true
+				p.Passes = append(p.Passes, Pass{Sweep: sw.name, Mineral: m.Name, X: pt.X, AtStart: k == 0})
+			}
+		}
+	}
+	return nil
+}
