@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"scalerisk/saturation"
 	"scalerisk/water"
@@ -87,7 +88,7 @@ var indexOutputs = []struct {
 // s.KeepAll keeps them. central is the assessment of a as reported (its
 // Result must be set).
 func Assess(central saturation.Assessment, opt saturation.Options, s Settings) (*Summary, error) {
-	if err := s.check(); err != nil {
+	if err := s.Check(); err != nil {
 		return nil, err
 	}
 	if central.Result == nil {
@@ -179,4 +180,38 @@ func runOf(smp sample, s Settings) Run {
 		r.Inputs = append(r.Inputs, in.Used)
 	}
 	return r
+}
+
+// decisive is the band of probability in which a result is still in doubt:
+// between 5 % and 95 % of the draws on either side of 0 or of the limit.
+const decisive = 0.05
+
+// Narrowing returns the input whose uncertainty matters most to the
+// minerals whose verdict is in doubt — SI > 0 or SI > limit in more than
+// 5 % and less than 95 % of the draws — ranked by Σ share × variance over
+// them; when no verdict is in doubt, over every mineral. It returns the
+// input and the minerals in doubt; "" when nothing varies.
+func (s *Summary) Narrowing() (input string, inDoubt []string) {
+	doubtful := func(p float64) bool { return p > decisive && p < 1-decisive }
+	for _, q := range s.Quantities {
+		if q.Mineral && (doubtful(q.PPositive) || doubtful(q.PAboveLimit)) {
+			inDoubt = append(inDoubt, q.Name)
+		}
+	}
+	weight := map[string]float64{}
+	for _, q := range s.Quantities {
+		if !q.Mineral || (len(inDoubt) > 0 && !slices.Contains(inDoubt, q.Name)) {
+			continue
+		}
+		for _, sh := range q.Sensitivity.Shares {
+			weight[sh.Input] += sh.Share * q.SD * q.SD
+		}
+	}
+	best := 0.0
+	for _, in := range s.Inputs {
+		if w := weight[in.Name]; w > best {
+			input, best = in.Name, w
+		}
+	}
+	return input, inDoubt
 }

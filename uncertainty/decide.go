@@ -44,7 +44,7 @@ type CyclesSummary struct {
 // runs the whole search, warm-started within it: the cost is about
 // s.Draws cycles searches, shared among s.Workers.
 func Cycles(a water.Analysis, central *saturation.CyclesResult, maxN, step float64, opt saturation.Options, s Settings) (*CyclesSummary, error) {
-	if err := s.check(); err != nil {
+	if err := s.Check(); err != nil {
 		return nil, err
 	}
 	if central == nil {
@@ -106,7 +106,7 @@ type DoseSummary struct {
 // reagent, strength and target) on each draw of water a under opt, and
 // summarises the dose each draw needs. Each draw runs the whole search.
 func Dose(a water.Analysis, central *saturation.DoseResult, opt saturation.Options, s Settings) (*DoseSummary, error) {
-	if err := s.check(); err != nil {
+	if err := s.Check(); err != nil {
 		return nil, err
 	}
 	if central == nil {

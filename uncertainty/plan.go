@@ -56,8 +56,9 @@ func (s Settings) confidence() float64 {
 	return s.Confidence
 }
 
-// check validates s.
-func (s Settings) check() error {
+// Check validates s: the number of draws, the confidence and the
+// whole-run uncertainty.
+func (s Settings) Check() error {
 	switch c := s.confidence(); {
 	case s.Draws < minDraws || s.Draws > maxDraws:
 		return fmt.Errorf("draws %d: want %d to %d", s.Draws, minDraws, maxDraws)

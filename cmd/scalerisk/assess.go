@@ -12,6 +12,7 @@ import (
 
 func newAssessCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
+	u := &uncertaintyFlags{}
 	var carbonate string
 	cmd := &cobra.Command{
 		Use:   "assess [FILE...|-]",
@@ -36,9 +37,16 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if opt.Carbonate, opt.PH, opt.LogPCO2, err = saturation.ParseCarbonateMode(carbonate); err != nil {
 				return badInput(err)
 			}
+			mc, withDraws, err := u.settings()
+			if err != nil {
+				return err
+			}
 			r, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
+			}
+			if withDraws {
+				return assessUncertain(cmd, c, r, src, format, opt, mc)
 			}
 			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
 			return stream(r, src, w, batch[saturation.Assessment]{
@@ -57,6 +65,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 		},
 	}
 	c.register(cmd)
+	u.register(cmd)
 	cmd.Flags().StringVar(&carbonate, "carbonate", "closed",
 		"carbonate system at the evaluation temperature: closed, air, pco2=LOG10(atm), charge (pH from charge balance) or ph=VALUE")
 	return cmd

@@ -17,6 +17,7 @@ import (
 
 func newDoseCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
+	u := &uncertaintyFlags{}
 	var reagent, target, carbonate string
 	var strength float64
 	cmd := &cobra.Command{
@@ -55,9 +56,16 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if strength != 0 && !(strength > 0 && strength <= 100) {
 				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
 			}
+			mc, withDraws, err := u.settings()
+			if err != nil {
+				return err
+			}
 			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
+			}
+			if withDraws {
+				return doseUncertain(cmd, c, run, src, format, doseQuestion{r, strength, tgt}, opt, mc)
 			}
 			w := reports.NewDoseWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.DoseOutcome]{
@@ -71,6 +79,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 		},
 	}
 	c.register(cmd)
+	u.register(cmd)
 	f := cmd.Flags()
 	f.StringVar(&reagent, "reagent", "", "reagent by formula: "+reagentNames())
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
@@ -93,6 +102,7 @@ func reagentNames() string {
 
 func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
+	u := &uncertaintyFlags{}
 	var limits, carbonate, reagent string
 	var maxN, step, evaporation float64
 	cmd := &cobra.Command{
@@ -138,9 +148,16 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if !(step >= (maxN-1)/1000) || math.IsInf(step, 0) || !(evaporation >= 0) || math.IsInf(evaporation, 0) {
 				return badInput(fmt.Errorf("--step must be at least (max−1)/1000 = %g and --evaporation a finite 0 or more", (maxN-1)/1000))
 			}
+			mc, withDraws, err := u.settings()
+			if err != nil {
+				return err
+			}
 			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
 				return err
+			}
+			if withDraws {
+				return cyclesUncertain(cmd, c, run, src, format, cyclesQuestion{profile, rule, carbonate, maxN, step, evaporation}, opt, mc)
 			}
 			w := reports.NewCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.CyclesOutcome]{
@@ -154,6 +171,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 		},
 	}
 	c.register(cmd)
+	u.register(cmd)
 	f := cmd.Flags()
 	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
 	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
