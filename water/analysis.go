@@ -12,6 +12,12 @@ import (
 type Analysis struct {
 	Name string
 	Date string
+	// Role is what the sample is to the plant (RoleUnset when not given)
+	// and System the tower or train it belongs to ("" when not given):
+	// a makeup and a recirculating sample of one system and date form a
+	// pair (see package saturation's Balance).
+	Role   Role
+	System string
 
 	// Temperature is the temperature of the water, °C (25 when not given).
 	Temperature float64
@@ -124,6 +130,8 @@ type Measurement struct {
 type Sample struct {
 	Name          string
 	Date          string
+	Role          Role    // RoleUnset when the file gives none
+	System        string  // the system (tower, RO train) the sample belongs to; "" when not given
 	Temperature   float64 // °C
 	PH            float64
 	PHTemperature float64 // °C
@@ -149,7 +157,7 @@ func NewSample(name string) Sample {
 // point. Alkalinity comes from a total-alkalinity analyte when one is given,
 // else from the sum of HCO3, CO3 and OH.
 func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
-	a := Analysis{Name: s.Name, Date: s.Date, Temperature: s.Temperature, PH: s.PH,
+	a := Analysis{Name: s.Name, Date: s.Date, Role: s.Role, System: s.System, Temperature: s.Temperature, PH: s.PH,
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
 		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
 		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity,

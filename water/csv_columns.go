@@ -16,6 +16,8 @@ const (
 	fieldName
 	fieldDate
 	fieldComment
+	fieldRole
+	fieldSystem
 	fieldTemperature
 	fieldPH
 	fieldPHTemperature
@@ -27,7 +29,7 @@ const (
 )
 
 var fieldLabels = [...]string{
-	fieldName: "name", fieldDate: "date", fieldComment: "comment", fieldTemperature: "temperature",
+	fieldName: "name", fieldDate: "date", fieldComment: "comment", fieldRole: "role", fieldSystem: "system", fieldTemperature: "temperature",
 	fieldPH: "pH", fieldPHTemperature: "pH_temperature", fieldDensity: "density", fieldTDS: "TDS",
 	fieldConductivity: "conductivity", fieldPressure: "pressure",
 }
@@ -38,6 +40,8 @@ var fieldNames = map[string]fieldKind{
 	"date": fieldDate, "sampledate": fieldDate, "samplingdate": fieldDate,
 	"comment": fieldComment, "comments": fieldComment, "note": fieldComment, "notes": fieldComment,
 	"remark": fieldComment, "remarks": fieldComment,
+	"role": fieldRole, "samplerole": fieldRole,
+	"system": fieldSystem, "circuit": fieldSystem,
 	"temperature": fieldTemperature, "temp": fieldTemperature, "t": fieldTemperature,
 	"watertemperature": fieldTemperature, "sampletemperature": fieldTemperature,
 	"ph":            fieldPH,
@@ -171,7 +175,7 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 		return c, false, errUnknownColumn
 	}
 	switch c.kind {
-	case fieldName, fieldDate, fieldComment:
+	case fieldName, fieldDate, fieldComment, fieldRole, fieldSystem:
 		return c, false, nil // a bracket on a text column is a format hint
 	case fieldPH:
 		if hasUnit {

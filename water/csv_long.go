@@ -331,7 +331,7 @@ func (lr *longReader) add(row longRow) {
 	case err != nil:
 		g.fail(lr.cellError(row, longAnalyte, row.Analyte, err))
 		return
-	case c.kind == fieldName || c.kind == fieldDate || c.kind == fieldComment || c.kind == fieldBlank:
+	case c.kind == fieldName || c.kind == fieldDate || c.kind == fieldComment || c.kind == fieldRole || c.kind == fieldSystem || c.kind == fieldBlank:
 		g.fail(lr.cellError(row, longAnalyte, row.Analyte, errNotAField))
 		return
 	}

@@ -161,6 +161,16 @@ func (b *sampleBuilder) set(c headerColumn, v cellValue, policy DetectionPolicy)
 		return nil
 	case fieldComment:
 		return nil
+	case fieldRole:
+		r, err := ParseRole(cleanText(v.raw))
+		if err != nil {
+			return err
+		}
+		b.s.Role = r
+		return nil
+	case fieldSystem:
+		b.s.System = cleanText(v.raw)
+		return nil
 	}
 	x, err := v.number()
 	if err != nil {

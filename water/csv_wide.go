@@ -26,7 +26,7 @@ func (rd *reader) wideColumns(header []string, line int) ([]headerColumn, []erro
 		if c.kind != fieldUnknown && c.kind != fieldBlank {
 			recognised = true
 		}
-		if err == nil && c.kind != fieldBlank && c.kind != fieldComment && c.kind != fieldName && c.kind != fieldDate {
+		if err == nil && c.kind != fieldBlank && c.kind != fieldComment && c.kind != fieldName && c.kind != fieldDate && c.kind != fieldRole && c.kind != fieldSystem {
 			if j, dup := seen[c.key()]; dup {
 				err = fmt.Errorf("duplicate column: %s is already in column %d (%q)", c.name(), j+1, cols[j].header)
 			} else if j, dup := seenComp[c.componentKey()]; dup && c.componentKey() != "" {
