@@ -172,53 +172,76 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 	if math.IsNaN(a.Pressure) {
 		a.Pressure = 1
 	}
-	type amount struct {
-		comp  string
-		mol   float64 // component mol (eq for alkalinity) per basis
-		basis Basis
-		mass  float64 // g of dissolved solid per mol of component, for TDS
-		name  string
+	amounts, err := s.amounts(forms, &a)
+	if err != nil {
+		return Analysis{}, err
 	}
-	var amounts []amount
-	var totalAlk, sumAlk, carbAlk float64
-	haveTotalAlk, haveSumAlk, haveCarb := false, false, false
+	a.DensityEstimated = math.IsNaN(s.Density)
+	a.Density, a.WaterPerLitre, err = waterPerLitre(amounts, s.Density, a.Temperature)
+	if err != nil {
+		return Analysis{}, err
+	}
+	a.addAmounts(amounts)
+	return a, nil
+}
+
+// sampleAmount is one measurement of a sample as an amount of its component.
+type sampleAmount struct {
+	comp  string
+	mol   float64 // component mol (eq for alkalinity) per basis
+	basis Basis
+	mass  float64 // g of dissolved solid per mol of component, for TDS
+	name  string
+}
+
+// amounts converts the measurements of s to amounts of their components
+// and notes the values below detection in a.
+func (s Sample) amounts(forms *AnalyteTable, a *Analysis) ([]sampleAmount, error) {
+	var amounts []sampleAmount
 	for _, m := range s.Measurements {
 		if m.Value < 0 {
-			return Analysis{}, fmt.Errorf("%s: negative concentration %g", m.Column, m.Value)
+			return nil, fmt.Errorf("%s: negative concentration %g", m.Column, m.Value)
 		}
 		mol, err := m.Unit.Amount(m.Analyte, m.Value, forms)
 		if err != nil {
-			return Analysis{}, fmt.Errorf("%s: %w", m.Column, err)
+			return nil, fmt.Errorf("%s: %w", m.Column, err)
 		}
 		mass := m.Analyte.FormMass / m.Analyte.PerForm
 		if m.Analyte.IsAlkalinity() {
 			// Weighed as HCO3 per equivalent for the density estimate.
 			mass = 61.016
 		}
-		amounts = append(amounts, amount{m.Analyte.Component, mol, m.Unit.Basis, mass, m.Analyte.Name})
+		amounts = append(amounts, sampleAmount{m.Analyte.Component, mol, m.Unit.Basis, mass, m.Analyte.Name})
 		if m.BelowDetection {
 			a.BelowDetection = append(a.BelowDetection,
 				fmt.Sprintf("%s <%g %s taken as %g", m.Column, m.Limit, m.Unit.Text, m.Value))
 		}
 	}
-	// TDS (g/L) and water mass per litre (kg), iterated.
-	rho := s.Density
-	a.DensityEstimated = math.IsNaN(rho)
-	if a.DensityEstimated {
-		rho = WaterDensity(a.Temperature)
+	return amounts, nil
+}
+
+// waterPerLitre returns the density rho (kg/L; the given density, or
+// EstimateDensity when it is NaN) and the mass of water per litre of
+// solution wpl = rho − TDS/1000 (kg), iterated with the TDS of amounts to
+// a fixed point, at t °C.
+func waterPerLitre(amounts []sampleAmount, density, t float64) (rho, wpl float64, err error) {
+	rho = density
+	estimated := math.IsNaN(rho)
+	if estimated {
+		rho = WaterDensity(t)
 	}
-	wpl := rho
+	wpl = rho
 	for iter := 0; iter < 50; iter++ {
 		tds := 0.0 // g/L
 		for _, am := range amounts {
 			tds += am.mol * am.mass * perLitre(am.basis, wpl, rho)
 		}
-		if a.DensityEstimated {
-			rho = EstimateDensity(tds, a.Temperature)
+		if estimated {
+			rho = EstimateDensity(tds, t)
 		}
 		next := rho - tds/1000
 		if next <= 0.05 {
-			return Analysis{}, fmt.Errorf("dissolved solids of %.0f g/L leave no water in a litre of density %.3f kg/L", tds, rho)
+			return 0, 0, fmt.Errorf("dissolved solids of %.0f g/L leave no water in a litre of density %.3f kg/L", tds, rho)
 		}
 		done := math.Abs(next-wpl) < 1e-12
 		wpl = next
@@ -226,7 +249,17 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 			break
 		}
 	}
-	a.Density, a.WaterPerLitre = rho, wpl
+	return rho, wpl, nil
+}
+
+// addAmounts adds amounts to the totals of a (mol/kg of water, with a's
+// density and water per litre), keeps free CO2 apart, and sets the
+// alkalinity: the total-alkalinity analyte when given (with a warning when
+// HCO3 + CO3 + OH disagree by more than 10 %), else their sum.
+func (a *Analysis) addAmounts(amounts []sampleAmount) {
+	var totalAlk, sumAlk, carbAlk float64
+	haveTotalAlk, haveSumAlk, haveCarb := false, false, false
+	wpl, rho := a.WaterPerLitre, a.Density
 	for _, am := range amounts {
 		molal := am.mol * perLitre(am.basis, wpl, rho) / wpl
 		if am.comp == "Alk" {
@@ -272,7 +305,6 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 	if haveCarb {
 		a.CarbonateAlkalinity = carbAlk
 	}
-	return a, nil
 }
 
 // perLitre returns the factor from an amount per basis to the amount per

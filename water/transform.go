@@ -126,6 +126,40 @@ func (a Analysis) Concentrate(n float64) (Analysis, error) {
 	return b, nil
 }
 
+// checkBlend checks the waters and fractions of Blend and returns the
+// blend's name.
+func checkBlend(waters []Analysis, fractions []float64) (string, error) {
+	if len(waters) == 0 || len(waters) != len(fractions) {
+		return "", fmt.Errorf("blend: %d waters and %d fractions: want the same number, at least one",
+			len(waters), len(fractions))
+	}
+	sum := 0.0
+	for i, f := range fractions {
+		if math.IsNaN(f) || f < 0 || f > 1 {
+			return "", fmt.Errorf("blend: fraction %g of %q: want a number in [0, 1]", f, waters[i].Name)
+		}
+		sum += f
+	}
+	if math.Abs(sum-1) > 1e-9 {
+		return "", fmt.Errorf("blend: fractions sum to %.12g: want 1", sum)
+	}
+	var parts []string
+	for i, w := range waters {
+		parts = append(parts, fmt.Sprintf("%.4g %% %s", 100*fractions[i], w.Name))
+		if fractions[i] == 0 {
+			continue
+		}
+		if err := checkCarbonFixed(w); err != nil {
+			return "", fmt.Errorf("blend: %w", err)
+		}
+		if !(w.WaterPerLitre > 0) || !(w.Density > 0) {
+			return "", fmt.Errorf("blend: sample %q: water per litre %g and density %g: want positive values",
+				w.Name, w.WaterPerLitre, w.Density)
+		}
+	}
+	return "blend " + strings.Join(parts, " + "), nil
+}
+
 // Blend returns the mix of waters by volume fractions, each in [0, 1] and
 // summing to 1 within 1e-9. Volumes are taken as additive, so one litre of
 // the mix holds Σ fᵢ·WaterPerLitreᵢ kg of water and weighs Σ fᵢ·Densityᵢ kg;
@@ -145,49 +179,18 @@ func (a Analysis) Concentrate(n float64) (Analysis, error) {
 // with alkalinity whose inorganic carbon is not known. The inputs are not
 // changed.
 func Blend(waters []Analysis, fractions []float64) (Analysis, error) {
-	if len(waters) == 0 || len(waters) != len(fractions) {
-		return Analysis{}, fmt.Errorf("blend: %d waters and %d fractions: want the same number, at least one",
-			len(waters), len(fractions))
+	name, err := checkBlend(waters, fractions)
+	if err != nil {
+		return Analysis{}, err
 	}
-	sum := 0.0
-	for i, f := range fractions {
-		if math.IsNaN(f) || f < 0 || f > 1 {
-			return Analysis{}, fmt.Errorf("blend: fraction %g of %q: want a number in [0, 1]", f, waters[i].Name)
-		}
-		sum += f
-	}
-	if math.Abs(sum-1) > 1e-9 {
-		return Analysis{}, fmt.Errorf("blend: fractions sum to %.12g: want 1", sum)
-	}
-	var parts []string
-	for i, w := range waters {
-		parts = append(parts, fmt.Sprintf("%.4g %% %s", 100*fractions[i], w.Name))
-		if fractions[i] == 0 {
-			continue
-		}
-		if err := checkCarbonFixed(w); err != nil {
-			return Analysis{}, fmt.Errorf("blend: %w", err)
-		}
-		if !(w.WaterPerLitre > 0) || !(w.Density > 0) {
-			return Analysis{}, fmt.Errorf("blend: sample %q: water per litre %g and density %g: want positive values",
-				w.Name, w.WaterPerLitre, w.Density)
-		}
-	}
-
-	b := Analysis{Name: "blend " + strings.Join(parts, " + "), CarbonKnown: true}
+	b := Analysis{Name: name, CarbonKnown: true}
 	var perLitre [NumComponents]float64
 	var alkPerLitre float64
 	alkKnown := true
-	date, sameDate, first := "", true, true
 	for i, w := range waters {
 		f := fractions[i]
 		if f == 0 {
 			continue
-		}
-		if first {
-			date, first = w.Date, false
-		} else if w.Date != date {
-			sameDate = false
 		}
 		b.Temperature += f * w.Temperature
 		b.Pressure += f * w.Pressure
@@ -220,20 +223,8 @@ func Blend(waters []Analysis, fractions []float64) (Analysis, error) {
 			b.Warnings = append(b.Warnings, w.Name+": "+s)
 		}
 	}
-	if sameDate {
-		b.Date = date
-	}
-	// Components measured in some waters but not in others.
-	for _, c := range Components() {
-		if !b.Measured[c] || c == C {
-			continue
-		}
-		for i, w := range waters {
-			if fractions[i] > 0 && !w.Measured[c] {
-				b.Warnings = append(b.Warnings, fmt.Sprintf("%s not measured in %s: counted as 0 in the blend", c, w.Name))
-			}
-		}
-	}
+	b.Date = sharedDate(waters, fractions)
+	b.Warnings = append(b.Warnings, unmeasuredInBlend(b.Measured, waters, fractions)...)
 	for c := range b.Totals {
 		b.Totals[c] = perLitre[c] / b.WaterPerLitre
 	}
@@ -243,6 +234,41 @@ func Blend(waters []Analysis, fractions []float64) (Analysis, error) {
 	}
 	afterTransform(&b)
 	return b, nil
+}
+
+// sharedDate returns the date the waters of nonzero fraction share, empty
+// when they differ.
+func sharedDate(waters []Analysis, fractions []float64) string {
+	date, first := "", true
+	for i, w := range waters {
+		if fractions[i] == 0 {
+			continue
+		}
+		if first {
+			date, first = w.Date, false
+		} else if w.Date != date {
+			return ""
+		}
+	}
+	return date
+}
+
+// unmeasuredInBlend returns a warning for each component measured in some
+// waters of the blend (measured) but not in another water of nonzero
+// fraction, which counts it as 0.
+func unmeasuredInBlend(measured [NumComponents]bool, waters []Analysis, fractions []float64) []string {
+	var out []string
+	for _, c := range Components() {
+		if !measured[c] || c == C {
+			continue
+		}
+		for i, w := range waters {
+			if fractions[i] > 0 && !w.Measured[c] {
+				out = append(out, fmt.Sprintf("%s not measured in %s: counted as 0 in the blend", c, w.Name))
+			}
+		}
+	}
+	return out
 }
 
 // Dose returns the water after adding mg milligrams of product per litre of

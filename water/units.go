@@ -63,54 +63,69 @@ var equivScale = map[string]float64{"eq": 1, "meq": 1e-3, "ueq": 1e-6, "µeq": 1
 // the degree sign are forgiven; "ppm" is mg/kg of solution, "ppb" µg/kg;
 // "M" and "mM" are mol/L and mmol/L.
 func ParseUnit(text string) (Unit, error) {
-	u := Unit{Text: text}
 	s := strings.TrimSpace(text)
 	low := strings.ToLower(s)
 	low = strings.ReplaceAll(low, "°", "")
 	low = strings.ReplaceAll(low, "º", "")
-	compact := strings.ReplaceAll(low, " ", "")
+	if u, ok := namedUnit(text, strings.ReplaceAll(low, " ", "")); ok {
+		return u, nil
+	}
+	return ratioUnit(text, s, low)
+}
+
+// namedUnit returns the unit of a name without a fraction bar (temperature,
+// density, pH) or with a fixed meaning (ppm, M); compact is the name in
+// lower case without spaces or degree signs.
+func namedUnit(text, compact string) (Unit, bool) {
+	u := Unit{Text: text}
 	switch compact {
 	case "c", "degc", "celsius":
 		u.Quantity, u.tempUnit = Temperature, 'C'
-		return u, nil
+		return u, true
 	case "f", "degf", "fahrenheit":
 		u.Quantity, u.tempUnit = Temperature, 'F'
-		return u, nil
+		return u, true
 	case "k", "kelvin":
 		u.Quantity, u.tempUnit = Temperature, 'K'
-		return u, nil
+		return u, true
 	case "us/cm", "µs/cm", "μs/cm", "umho/cm", "µmho/cm", "μmho/cm":
 		u.Quantity, u.scale = Conductivity, 1
-		return u, nil
+		return u, true
 	case "ms/cm", "mmho/cm", "ds/m":
 		u.Quantity, u.scale = Conductivity, 1000
-		return u, nil
+		return u, true
 	case "ms/m":
 		u.Quantity, u.scale = Conductivity, 10
-		return u, nil
+		return u, true
 	case "kg/l", "g/ml", "g/cm3", "g/cc", "kg/dm3":
 		u.Quantity, u.scale = Density, 1
-		return u, nil
+		return u, true
 	case "kg/m3", "g/l(density)":
 		u.Quantity, u.scale = Density, 1e-3
-		return u, nil
+		return u, true
 	case "", "-", "su", "ph", "phunits", "stdunits":
 		u.Quantity, u.scale = Dimensionless, 1
-		return u, nil
+		return u, true
 	case "m":
 		u.Quantity, u.amount, u.scale, u.Basis = Concentration, byMole, 1, PerLitre
-		return u, nil
+		return u, true
 	case "mm":
 		u.Quantity, u.amount, u.scale, u.Basis = Concentration, byMole, 1e-3, PerLitre
-		return u, nil
+		return u, true
 	case "ppm":
 		u.Quantity, u.amount, u.scale, u.Basis = Concentration, byMass, 1e-3, PerKgSolution
-		return u, nil
+		return u, true
 	case "ppb":
 		u.Quantity, u.amount, u.scale, u.Basis = Concentration, byMass, 1e-6, PerKgSolution
-		return u, nil
+		return u, true
 	}
-	// "<amount>/<basis>[ as <form>]"
+	return Unit{}, false
+}
+
+// ratioUnit parses "<amount>/<basis>[ as <form>]"; s is text trimmed and
+// low its lower-case form without degree signs.
+func ratioUnit(text, s, low string) (Unit, error) {
+	u := Unit{Text: text}
 	main, as, _ := strings.Cut(low, " as ")
 	if as != "" {
 		u.As = strings.TrimSpace(s[len(s)-len(as):])
