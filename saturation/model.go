@@ -15,15 +15,16 @@ var masterNames = [water.NumComponents]string{
 	water.Ba: "Ba[2+]", water.Sr: "Sr[2+]", water.Fe: "Fe[2+]", water.Mn: "Mn[2+]",
 	water.Cl: "Cl[-]", water.S: "SO4[2-]", water.C: "CO3[2-]", water.Si: "H4SiO4[0]",
 	water.P: "PO4[3-]", water.F: "F[-]", water.N: "NO3[-]", water.B: "B(OH)3[0]",
+	water.Br: "Br[-]", water.I: "I[-]", water.Li: "Li[+]", water.NH4: "NH4[+]",
 }
 
 const hydrogen = "H[+]"
 
 // masterAlkalinity is the titration alkalinity, eq/mol, of each master
-// species relative to the zero level H2CO3, H4SiO4, H2PO4−, B(OH)3, HSO4−'s
-// SO4, HF's F: CO3[2-] +2, PO4[3-] +2, H[+] −1, others 0. Species inherit the
-// sum over their composition, so OH− counts +1, HCO3− +1, HSO4− −1, HF −1,
-// H3SiO4− +1, B(OH)4− +1, HPO4²⁻ +1, H3PO4 −1.
+// species relative to the zero level H2CO3, H4SiO4, H2PO4−, B(OH)3, NH4⁺,
+// HSO4−'s SO4, HF's F: CO3[2-] +2, PO4[3-] +2, H[+] −1, others 0. Species
+// inherit the sum over their composition, so OH− counts +1, HCO3− +1, HSO4−
+// −1, HF −1, H3SiO4− +1, B(OH)4− +1, HPO4²⁻ +1, H3PO4 −1, NH3 +1.
 //
 // References: Dickson, A.G. (1981) Deep-Sea Res. 28A:609 (definition of total
 // alkalinity by proton condition, from memory).

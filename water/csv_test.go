@@ -665,7 +665,7 @@ func TestCSVBrineMolality(t *testing.T) {
 var csvAtomicWeights = map[string]float64{
 	"H": 1.0080, "B": 10.81, "C": 12.011, "N": 14.007, "O": 15.999, "F": 18.998, "Na": 22.990,
 	"Mg": 24.305, "Si": 28.085, "P": 30.974, "S": 32.06, "Cl": 35.45, "K": 39.098, "Ca": 40.078,
-	"Mn": 54.938, "Fe": 55.845, "Sr": 87.62, "Ba": 137.33,
+	"Mn": 54.938, "Fe": 55.845, "Sr": 87.62, "Ba": 137.33, "Li": 6.94, "Br": 79.904, "I": 126.90,
 }
 
 // csvFormulaMass returns the molar mass of a formula such as "HCO3".
@@ -706,6 +706,7 @@ func TestCSVAnalyteFormMass(t *testing.T) {
 		"SO4": {"SO4", 1}, "SO4-S": {"S", 1}, "NO3": {"NO3", 1}, "NO3-N": {"N", 1},
 		"SiO2": {"SiO2", 1}, "Si": {"Si", 1}, "PO4": {"PO4", 1}, "PO4-P": {"P", 1},
 		"DIC": {"C", 1}, "CO2": {"CO2", 1}, "HCO3": {"HCO3", 1}, "CO3": {"CO3", 1}, "OH": {"OH", 1},
+		"Br": {"Br", 1}, "I": {"I", 1}, "Li": {"Li", 1}, "NH4": {"NH4", 1}, "NH4-N": {"N", 1}, "NH3": {"NH3", 1},
 		"alkalinity":  {"CaCO3", 2},                              // the equivalent weight of CaCO3
 		"Ca-hardness": {"CaCO3", 1}, "Mg-hardness": {"CaCO3", 1}, // hardness as CaCO3
 	}
