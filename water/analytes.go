@@ -3,6 +3,7 @@ package water
 import (
 	"fmt"
 	"io"
+	"slices"
 	"strings"
 	"sync"
 
@@ -89,11 +90,24 @@ func (t *AnalyteTable) Lookup(name string) (Analyte, bool) {
 	if !ok {
 		return Analyte{}, false
 	}
-	return t.list[i], true
+	return t.list[i].clone(), true
 }
 
-// All returns every analyte in table order.
-func (t *AnalyteTable) All() []Analyte { return append([]Analyte(nil), t.list...) }
+// All returns a copy of every analyte in table order.
+func (t *AnalyteTable) All() []Analyte {
+	out := make([]Analyte, len(t.list))
+	for i, a := range t.list {
+		out[i] = a.clone()
+	}
+	return out
+}
+
+// clone returns a with its own copy of the aliases, so that a caller
+// editing them does not change the shared table.
+func (a Analyte) clone() Analyte {
+	a.Aliases = slices.Clone(a.Aliases)
+	return a
+}
 
 // FormOf returns the analyte form of component comp named form: the "X" of
 // a unit "mg/L as X". It matches a form's name ("SiO2", "Si"), the element
@@ -106,10 +120,10 @@ func (t *AnalyteTable) FormOf(comp, form string) (Analyte, bool) {
 			continue
 		}
 		if normalizeName(a.Name) == key || strings.HasSuffix(strings.ToLower(a.Name), "-"+strings.ToLower(strings.TrimSpace(form))) {
-			return a, true
+			return a.clone(), true
 		}
 		if strings.EqualFold(comp, form) && a.PerForm == 1 && a.Charge == 0 && strings.EqualFold(comp, "C") && a.Name == "DIC" {
-			return a, true
+			return a.clone(), true
 		}
 	}
 	return Analyte{}, false
