@@ -68,3 +68,67 @@ func BenchmarkSweep100(b *testing.B) {
 		}
 	}
 }
+
+// demoBenchWaters returns the demo's tower water (dilute cooling water,
+// I ≈ 0.04 mol/kg, Davies) and RO concentrate (brackish, I ≈ 0.12 mol/kg,
+// Truesdell–Jones), the invented waters of data/demo.csv.
+func demoBenchWaters(b *testing.B) map[string]water.Analysis {
+	f, err := water.OpenDemo()
+	if err != nil {
+		b.Fatal(err)
+	}
+	defer f.Close()
+	recs, _, err := water.Read("demo.csv", f, water.ReadOptions{})
+	if err != nil || len(recs) < 3 {
+		b.Fatalf("demo: %v", err)
+	}
+	return map[string]water.Analysis{"cooling": recs[1].Analysis, "brackish": recs[2].Analysis}
+}
+
+// BenchmarkDemoSpeciateCold is one cold speciation (a fresh Speciator) of
+// each demo water, with every saturation index: the unit of the assessment
+// ratio.
+func BenchmarkDemoSpeciateCold(b *testing.B) {
+	for _, name := range []string{"cooling", "brackish"} {
+		a := demoBenchWaters(b)[name]
+		b.Run(name, func(b *testing.B) {
+			for b.Loop() {
+				if _, err := NewSpeciator(nil).Speciate(a, Options{}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkAssess is the full assessment of one demo water by a fresh
+// Speciator, as assess does: speciation, classic indices with the CCPP,
+// and the precipitation potential of every readily forming mineral alone
+// and together.
+func BenchmarkAssess(b *testing.B) {
+	for _, name := range []string{"cooling", "brackish"} {
+		a := demoBenchWaters(b)[name]
+		b.Run(name, func(b *testing.B) {
+			for b.Loop() {
+				if as := AssessAnalysis(a, Options{}); as.Err != nil || len(as.Warnings) > 0 && as.Indices == nil {
+					b.Fatal(as.Err, as.Warnings)
+				}
+			}
+		})
+	}
+}
+
+// BenchmarkSweepPoint is one point of a temperature sweep of the demo
+// cooling water, warm-started from the previous point (5–95 °C in turn).
+func BenchmarkSweepPoint(b *testing.B) {
+	a := demoBenchWaters(b)["cooling"]
+	sp := NewSpeciator(nil)
+	i := 0
+	for b.Loop() {
+		t := 5 + 0.9*float64(i%100)
+		if _, err := sp.Speciate(a, Options{AtTemperature: true, Temperature: t}); err != nil {
+			b.Fatal(err)
+		}
+		i++
+	}
+}

@@ -206,5 +206,5 @@ func SimplifiedPHs(tds, t, caCaCO3, alkCaCO3 float64) float64 {
 // calcite saturation in a closed system: each mole removes one of Ca, one of
 // inorganic carbon and two equivalents of alkalinity.
 func (sp *Speciator) calciteToEquilibrium(r *Result, opt Options) (float64, error) {
-	return sp.mineralToEquilibrium(r, "calcite", opt)
+	return sp.mineralToEquilibrium(r, "calcite")
 }

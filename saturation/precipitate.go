@@ -34,95 +34,139 @@ func (m *Model) mineralIndex(name string) (int, error) {
 	return i, nil
 }
 
-// removeMinerals returns water a with amounts x[k] (mol/kg of water) of
-// minerals idx[k] taken out: each component total falls by x times the
-// mineral's coefficient, alkalinity by x times the mineral's alkalinity
-// (its coefficients on the masters weighted by their alkalinity: 2 per
-// carbonate, −1 per H⁺, so 2 for CaCO3 and Mg(OH)2, 0 for CaSO4).
-func (m *Model) removeMinerals(a water.Analysis, idx []int, x []float64) water.Analysis {
-	b := a
-	for k, i := range idx {
-		mn := &m.minerals[i]
-		for _, nt := range mn.nu {
-			if nt.j == 0 {
-				b.Alkalinity += x[k] * nt.coef // −Σν·alk with alk(H+) = −1
-				continue
-			}
-			for c := range water.NumComponents {
-				if m.compMaster[c] == nt.j {
-					b.Totals[c] -= x[k] * nt.coef
-				}
-			}
-			b.Alkalinity -= x[k] * nt.coef * masterAlkalinity[m.masters[nt.j]]
-		}
-	}
-	b.PH = math.NaN()
-	return b
+// search re-speciates the water of a result, closed at the result's
+// temperature and activity model, with amounts of minerals removed: the
+// inner solve of the precipitation potential and the CCPP. It builds no
+// Result and copies no analysis; its work arrays are made once per search
+// and every solve starts from the solver's last solution.
+//
+// Amounts are found by the solver's equilibrium solve (Newton's method on
+// the speciation and the amounts together, to eqTolerance: about 1e-8 of
+// each amount); where that fails, by Brent's method on the saturation
+// index over a bracket of amounts, to searchTolerance.
+type search struct {
+	s      *solver
+	p      problem   // the water of the result; p.totals is a work array
+	totals []float64 // the totals of the water of the result, per master
+	alk    float64   // its alkalinity, eq/kg
+	x      []float64 // work amounts, mol/kg
 }
 
-// maxRemovable returns the most of mineral i that water a holds, mol/kg:
+// searchTolerance is the bracketing fallback's tolerance on an amount,
+// mol/kg of water: 1e-12 mol/kg is 1e-7 mg/L of CaCO3, far below the four
+// significant figures printed.
+const searchTolerance = 1e-12
+
+// newSearch prepares the searches on the water of r (a result of this
+// Speciator) as Speciate would re-speciate r.Analysis closed at
+// r.Temperature under r.Activity.
+func (sp *Speciator) newSearch(r *Result) (*search, error) {
+	s, err := sp.engine(r.Activity)
+	if err != nil {
+		return nil, err
+	}
+	m := s.m
+	a := &r.Analysis
+	sr := &search{s: s, totals: make([]float64, len(m.masters)), alk: a.Alkalinity,
+		x: make([]float64, maxEquilibria)}
+	for c := range water.NumComponents {
+		if c != water.C {
+			sr.totals[m.compMaster[c]] = a.Totals[c]
+		}
+	}
+	sr.p = problem{t: r.Temperature, model: r.Activity, totals: make([]float64, len(m.masters)),
+		hRow: rowAlk, alk: a.Alkalinity, cRow: rowAbsent}
+	if a.CarbonKnown && a.Totals[water.C] > 0 {
+		sr.totals[m.compMaster[water.C]] = a.Totals[water.C]
+		sr.p.cRow = rowMass
+	}
+	if math.IsNaN(a.Alkalinity) {
+		sr.p.hRow = rowCharge
+	}
+	copy(sr.p.totals, sr.totals)
+	return sr, nil
+}
+
+// mineral returns the index of mineral name in the search's model.
+func (sr *search) mineral(name string) (int, error) {
+	return sr.s.m.mineralIndex(name)
+}
+
+// reset sets the search's problem back to the water of the result.
+func (sr *search) reset() {
+	copy(sr.p.totals, sr.totals)
+	sr.p.alk = sr.alk
+}
+
+// siAfter returns the saturation indices of minerals idx (into si) once
+// amounts x of them are removed from the water, by one ordinary solve.
+func (sr *search) siAfter(idx []int, x, si []float64) error {
+	s := sr.s
+	sr.reset()
+	for k, i := range idx {
+		for _, nt := range s.m.minerals[i].nu {
+			sr.p.totals[nt.j] -= x[k] * nt.coef
+			sr.p.alk -= x[k] * nt.coef * s.m.species[nt.j].alk
+		}
+	}
+	sr.p.totals[0] = 0
+	if err := s.solve(sr.p, true); err != nil {
+		return err
+	}
+	for k, i := range idx {
+		v, ok := s.mineralSI(i)
+		if !ok {
+			return errVanished(s.m.minerals[i].name)
+		}
+		si[k] = v
+	}
+	return nil
+}
+
+// maxRemovable returns the most of mineral i that the water holds, mol/kg:
 // the least total over its components divided by their coefficients.
-func (m *Model) maxRemovable(a water.Analysis, i int) float64 {
+func (sr *search) maxRemovable(i int) float64 {
 	best := math.Inf(1)
-	for _, nt := range m.minerals[i].nu {
+	for _, nt := range sr.s.m.minerals[i].nu {
 		if nt.j == 0 || nt.coef <= 0 {
 			continue
 		}
-		for c := range water.NumComponents {
-			if m.compMaster[c] == nt.j {
-				best = math.Min(best, a.Totals[c]/nt.coef)
-			}
-		}
+		best = math.Min(best, sr.totals[nt.j]/nt.coef)
 	}
 	return best
 }
 
-// internalOptions are the options of the re-speciations inside a
-// precipitation or CCPP calculation: the result's temperature and activity
-// model, closed carbonate system.
-func internalOptions(r *Result, opt Options) Options {
-	o := opt
-	o.AtTemperature, o.Temperature = true, r.Temperature
-	o.Carbonate = Closed
-	o.Activity = r.Activity
-	return o
-}
-
-// mineralToEquilibrium returns x, mol/kg of water, of mineral name that
-// must precipitate (x > 0) or dissolve (x < 0) for the water of r to reach
-// saturation with it, closed system, by Brent's method on x.
-func (sp *Speciator) mineralToEquilibrium(r *Result, name string, opt Options) (float64, error) {
-	m := sp.model
-	i, err := m.mineralIndex(name)
-	if err != nil {
-		return 0, err
-	}
-	si0, ok := r.SI(name)
-	if !ok {
-		return 0, fmt.Errorf("%s has no saturation index in this water", name)
-	}
+// toEquilibrium returns x, mol/kg of water, of mineral i (saturation index
+// si0 in the water) that must precipitate (x > 0) or dissolve (x < 0) for
+// the water to reach saturation with it, closed system.
+func (sr *search) toEquilibrium(i int, si0 float64) (float64, error) {
 	if si0 == 0 {
 		return 0, nil
 	}
-	o := internalOptions(r, opt)
-	base := r.Analysis
+	sr.reset()
+	idx := [1]int{i}
+	x := sr.x[:1]
+	if err := sr.s.solveEquilibrium(sr.p, idx[:], x); err == nil && (x[0] > 0) == (si0 > 0) && x[0] < sr.maxRemovable(i) {
+		return x[0], nil
+	}
+	return sr.bracketed(i, si0)
+}
+
+// bracketed is toEquilibrium by Brent's method on the saturation index.
+func (sr *search) bracketed(i int, si0 float64) (float64, error) {
+	idx := [1]int{i}
+	var xs, si [1]float64
 	f := func(x float64) (float64, error) {
-		res, err := sp.Speciate(m.removeMinerals(base, []int{i}, []float64{x}), o)
-		if err != nil {
-			return 0, err
-		}
-		si, ok := res.SI(name)
-		if !ok {
-			return 0, fmt.Errorf("%s vanished from the water", name)
-		}
-		return si, nil
+		xs[0] = x
+		err := sr.siAfter(idx[:], xs[:], si[:])
+		return si[0], err
 	}
 	if si0 > 0 {
-		hi := m.maxRemovable(base, i) * (1 - 1e-9)
+		hi := sr.maxRemovable(i) * (1 - 1e-9)
 		if !(hi > 0) {
 			return 0, errors.New("nothing to precipitate")
 		}
-		return findRoot(f, 0, hi, 1e-13)
+		return findRoot(f, 0, hi, searchTolerance)
 	}
 	// Dissolution: widen until the water is saturated.
 	lo := -1e-5
@@ -132,7 +176,7 @@ func (sp *Speciator) mineralToEquilibrium(r *Result, name string, opt Options) (
 			return 0, err
 		}
 		if v >= 0 {
-			return findRoot(f, lo, 0, 1e-13)
+			return findRoot(f, lo, 0, searchTolerance)
 		}
 		lo *= 2
 		if lo < -1 {
@@ -140,6 +184,40 @@ func (sp *Speciator) mineralToEquilibrium(r *Result, name string, opt Options) (
 		}
 	}
 	return 0, errors.New("no saturation reached by dissolving up to 1 mol/kg")
+}
+
+// mineralToEquilibrium returns x, mol/kg of water, of mineral name that
+// must precipitate (x > 0) or dissolve (x < 0) for the water of r to reach
+// saturation with it, closed system (see search for the method and its
+// tolerance).
+func (sp *Speciator) mineralToEquilibrium(r *Result, name string) (float64, error) {
+	if c := sp.lastSearch; c.r == r && c.name == name {
+		return c.x, c.err
+	}
+	si0, ok := r.SI(name)
+	if !ok {
+		return 0, fmt.Errorf("%s has no saturation index in this water", name)
+	}
+	sr, err := sp.newSearch(r)
+	if err != nil {
+		return 0, err
+	}
+	i, err := sr.mineral(name)
+	if err != nil {
+		return 0, err
+	}
+	x, err := sr.toEquilibrium(i, si0)
+	sp.lastSearch = searchMemo{r: r, name: name, x: x, err: err}
+	return x, err
+}
+
+// searchMemo is the last mineralToEquilibrium answer: the CCPP and the
+// precipitation of calcite alone ask the same question of one result.
+type searchMemo struct {
+	r    *Result
+	name string
+	x    float64
+	err  error
 }
 
 // PrecipitationPotential returns, for every supersaturated mineral of r
@@ -155,6 +233,8 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 	var out []Precipitation
 	var warnings []string
 	var cand []int
+	var alone []float64 // mol/kg, per candidate; NaN when not computed
+	sr, err := sp.newSearch(r)
 	for _, mr := range r.Minerals {
 		if mr.SI <= 0 {
 			continue
@@ -164,11 +244,18 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 		}
 		i, _ := m.mineralIndex(mr.Name)
 		p := Precipitation{Mineral: mr.Name, SI: mr.SI, Alone: math.NaN(), Together: math.NaN()}
-		x, err := sp.mineralToEquilibrium(r, mr.Name, opt)
+		x := math.NaN()
+		if err == nil {
+			x, err = sp.alone(sr, r, mr.Name, mr.SI)
+		}
 		mass, merr := water.FormulaMass(m.minerals[i].formula)
 		switch {
 		case err != nil:
 			warnings = append(warnings, fmt.Sprintf("precipitation of %s not computed: %v", mr.Name, err))
+			x, err = math.NaN(), nil
+			if sr == nil {
+				sr, err = sp.newSearch(r)
+			}
 		case merr != nil:
 			warnings = append(warnings, fmt.Sprintf("precipitation of %s: %v", mr.Name, merr))
 		default:
@@ -176,9 +263,20 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 		}
 		out = append(out, p)
 		cand = append(cand, i)
+		alone = append(alone, x)
 	}
-	cand = competing(m, r, cand)
-	x, err := sp.jointEquilibrium(r, cand, opt)
+	if sr == nil {
+		warnings = append(warnings, fmt.Sprintf("joint precipitation not computed: %v", err))
+		return out, warnings
+	}
+	kept := competing(m, r, cand)
+	var x []float64
+	if len(kept) == 1 && !math.IsNaN(alone[slices.Index(cand, kept[0])]) {
+		// One mineral alone in the joint equilibrium: its amount alone.
+		x = []float64{alone[slices.Index(cand, kept[0])]}
+	} else {
+		x, err = sr.joint(kept)
+	}
 	if err != nil {
 		warnings = append(warnings, fmt.Sprintf("joint precipitation not computed: %v", err))
 		return out, warnings
@@ -186,12 +284,26 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 	for k := range out {
 		out[k].Together = 0
 		i, _ := m.mineralIndex(out[k].Mineral)
-		if j := slices.Index(cand, i); j >= 0 {
+		if j := slices.Index(kept, i); j >= 0 {
 			mass, _ := water.FormulaMass(m.minerals[i].formula)
 			out[k].Together = x[j] * r.Analysis.WaterPerLitre * mass * 1000
 		}
 	}
 	return out, warnings
+}
+
+// alone returns the amount of mineral name (saturation index si0 in the
+// water of r) that precipitates alone, by search sr, or the CCPP's answer
+// for the same question.
+func (sp *Speciator) alone(sr *search, r *Result, name string, si0 float64) (float64, error) {
+	if c := sp.lastSearch; c.r == r && c.name == name {
+		return c.x, c.err
+	}
+	i, err := sr.mineral(name)
+	if err != nil {
+		return 0, err
+	}
+	return sr.toEquilibrium(i, si0)
 }
 
 // competing keeps, of candidate minerals with the same composition on the
@@ -217,34 +329,102 @@ func competing(m *Model, r *Result, cand []int) []int {
 	return out
 }
 
-// jointEquilibrium solves SI_k(x) = 0 for the amounts x (mol/kg) of the
-// minerals idx removed together, x ≥ 0, by damped Newton with a
-// finite-difference Jacobian and an active set.
-func (sp *Speciator) jointEquilibrium(r *Result, idx []int, opt Options) ([]float64, error) {
-	m := sp.model
+// joint returns the amounts x, mol/kg of water, of the minerals idx
+// (indices in the sp's model) removed together at their joint equilibrium,
+// x ≥ 0: each mineral with x > 0 saturated, each with x = 0 at most
+// saturated. It solves the equilibrium over an active set (a mineral whose
+// amount comes out negative leaves it, one left out that is still
+// supersaturated rejoins it); where that fails, by damped Newton with a
+// finite-difference Jacobian on the saturation indices.
+func (sr *search) joint(idx []int) ([]float64, error) {
+	si := make([]int, len(idx)) // the minerals in the search's model
+	for k, i := range idx {
+		var err error
+		if si[k], err = sr.mineral(sr.s.m.minerals[i].name); err != nil {
+			return nil, err
+		}
+	}
+	if x, err := sr.jointActiveSet(si); err == nil {
+		return x, nil
+	}
+	return sr.jointByDifferences(si)
+}
+
+// jointActiveSet is joint by equilibrium solves over an active set.
+func (sr *search) jointActiveSet(idx []int) ([]float64, error) {
+	n := len(idx)
+	x := make([]float64, n)
+	active := make([]bool, n)
+	for k := range active {
+		active[k] = true
+	}
+	act, mins := make([]int, 0, n), make([]int, 0, n)
+	xa := make([]float64, n)
+	for round := 0; round < 3*n+3; round++ {
+		act, mins = act[:0], mins[:0]
+		for k := range idx {
+			x[k] = 0
+			if active[k] {
+				act, mins = append(act, k), append(mins, idx[k])
+			}
+		}
+		sr.reset()
+		if len(mins) == 0 {
+			if err := sr.s.solve(sr.p, true); err != nil {
+				return nil, err
+			}
+		} else {
+			if err := sr.s.solveEquilibrium(sr.p, mins, xa); err != nil {
+				return nil, err
+			}
+			// The most negative amount leaves the active set.
+			worst, at := 0.0, -1
+			for q, k := range act {
+				if xa[q] < worst {
+					worst, at = xa[q], k
+				}
+			}
+			if at >= 0 {
+				active[at] = false
+				continue
+			}
+			for q, k := range act {
+				x[k] = xa[q]
+			}
+		}
+		// The most supersaturated of the minerals left out rejoins.
+		best, at := 1e-8, -1
+		for k := range idx {
+			if !active[k] {
+				if v, ok := sr.s.mineralSI(idx[k]); ok && v > best {
+					best, at = v, k
+				}
+			}
+		}
+		if at < 0 {
+			return x, nil
+		}
+		active[at] = true
+	}
+	return nil, errors.New("the active set did not settle")
+}
+
+// jointByDifferences is joint by damped Newton with a finite-difference
+// Jacobian and an active set, each step a solve of the water.
+func (sr *search) jointByDifferences(idx []int) ([]float64, error) {
 	n := len(idx)
 	x := make([]float64, n)
 	if n == 0 {
 		return x, nil
 	}
-	o := internalOptions(r, opt)
-	base := r.Analysis
 	active := make([]bool, n)
 	for k := range active {
 		active[k] = true
 	}
 	sis := func(x []float64) ([]float64, error) {
-		res, err := sp.Speciate(m.removeMinerals(base, idx, x), o)
-		if err != nil {
-			return nil, err
-		}
 		out := make([]float64, n)
-		for k, i := range idx {
-			v, ok := res.SI(m.minerals[i].name)
-			if !ok {
-				v = math.Inf(-1)
-			}
-			out[k] = v
+		if err := sr.siAfter(idx, x, out); err != nil {
+			return nil, err
 		}
 		return out, nil
 	}
@@ -315,7 +495,7 @@ func (sp *Speciator) jointEquilibrium(r *Result, idx []int, opt Options) ([]floa
 			for c, k := range act {
 				xn[k] = math.Max(x[k]+lambda*dx.AtVec(c), 0)
 			}
-			if !feasible(m, base, idx, xn) {
+			if !sr.feasible(idx, xn) {
 				lambda /= 2
 				continue
 			}
@@ -338,12 +518,22 @@ func (sp *Speciator) jointEquilibrium(r *Result, idx []int, opt Options) ([]floa
 	return nil, errors.New("joint equilibrium did not converge")
 }
 
-// feasible reports whether removing x of the minerals leaves every total
-// non-negative.
-func feasible(m *Model, a water.Analysis, idx []int, x []float64) bool {
-	b := m.removeMinerals(a, idx, x)
-	for c := range water.NumComponents {
-		if b.Totals[c] < -1e-15 {
+// feasible reports whether removing x of the minerals idx leaves every
+// total non-negative.
+func (sr *search) feasible(idx []int, x []float64) bool {
+	m := sr.s.m
+	for j, t := range sr.totals {
+		if j == 0 {
+			continue
+		}
+		for k, i := range idx {
+			for _, nt := range m.minerals[i].nu {
+				if nt.j == j {
+					t -= x[k] * nt.coef
+				}
+			}
+		}
+		if t < -1e-15 {
 			return false
 		}
 	}

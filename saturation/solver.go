@@ -105,10 +105,26 @@ type solver struct {
 	// pz holds the Pitzer coefficients when the solver works on the Pitzer
 	// model set (pitzer.go); nil for the ion-association set.
 	pz *pitzerState
+
+	// eq lists the minerals an equilibrium solve holds at saturation, eqX
+	// the amounts of them removed (unknowns after ln a_w); empty in an
+	// ordinary solve (see solveEquilibrium).
+	eq  []eqMineral
+	eqX []float64
+	// tol is the convergence tolerance of the solve under way.
+	tol float64
 }
 
-// maxIterations bounds the Newton–Raphson iterations of one solve.
-const maxIterations = 200
+// maxEquilibria bounds the minerals of one equilibrium solve.
+const maxEquilibria = 12
+
+// maxIterations bounds the Newton–Raphson iterations of one solve;
+// maxEquilibriumIterations those of an equilibrium solve, whose callers
+// then fall back on a search over ordinary solves.
+const (
+	maxIterations            = 200
+	maxEquilibriumIterations = 40
+)
 
 // chordThreshold is the largest scaled residual at which the solver
 // reuses the previous Jacobian's factors (see newton).
@@ -121,7 +137,7 @@ const tolerance = 1e-12
 // newSolver returns a solver for m.
 func newSolver(m *Model) *solver {
 	nm, ns := len(m.masters), len(m.species)
-	n := nm + 2
+	n := nm + 2 + maxEquilibria
 	other := tempCache{lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
 		mineralOwnLogK: make([]float64, len(m.minerals))}
 	return &solver{other: other, m: m, nm: nm, ns: ns,
@@ -131,7 +147,8 @@ func newSolver(m *Model) *solver {
 		dlng: make([]float64, ns), ms: make([]float64, ns), live: make([]bool, ns),
 		vars: make([]int, 0, n), rows: make([]rowKind, 0, n), rowOf: make([]int, nm),
 		scale: make([]float64, n), jacobian: make([]float64, n*n), resid: make([]float64, n),
-		dx: make([]float64, n), save: make([]float64, n), ipiv: make([]int, n), prevV: make([]int, 0, n)}
+		dx: make([]float64, n), save: make([]float64, n), ipiv: make([]int, n), prevV: make([]int, 0, n),
+		eq: make([]eqMineral, 0, maxEquilibria), eqX: make([]float64, maxEquilibria), tol: tolerance}
 }
 
 func (s *solver) setTemperature(t float64) {
@@ -562,7 +579,7 @@ func (s *solver) updateWater() {
 // ln I, then ln a_w). It returns the largest absolute scaled residual and
 // the sum of squares.
 func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
-	n := len(s.vars) + 2
+	n := len(s.vars) + 2 + len(s.eq)
 	I := math.Exp(s.lnI)
 	pitzer := s.setActivity(I)
 	R := s.resid[:n]
@@ -587,6 +604,9 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 	}
 	var sums speciesSums
 	s.speciesRows(R, J, col, I, &sums)
+	if len(s.eq) > 0 {
+		s.equilibriumRows(R, J, col, I)
+	}
 	s.componentRows(R, J, col, I)
 	s.closureRows(R, J, I, pitzer, &sums)
 	return s.scaleRows(R, J)
@@ -638,7 +658,7 @@ func (s *solver) speciesRows(R, J []float64, col []int, I float64, sums *species
 	m := s.m
 	hFixed := s.p.hRow == rowFixed
 	n := len(R)
-	cI, cW := n-2, n-1
+	cI, cW := len(s.vars), len(s.vars)+1
 	for i := range m.species {
 		if !s.live[i] {
 			continue
@@ -715,7 +735,7 @@ func (s *solver) componentRows(R, J []float64, col []int, I float64) {
 	m, p := s.m, &s.p
 	hFixed := p.hRow == rowFixed
 	n := len(R)
-	cI, cW := n-2, n-1
+	cI, cW := len(s.vars), len(s.vars)+1
 	for k, j := range s.vars {
 		var sc float64
 		switch s.rows[k] {
@@ -761,7 +781,7 @@ func (s *solver) componentRows(R, J []float64, col []int, I float64) {
 // Pitzer ln a_w + φ·M_w·Σm = 0 with φ of the last refresh.
 func (s *solver) closureRows(R, J []float64, I float64, pitzer bool, sums *speciesSums) {
 	n := len(R)
-	cI, cW := n-2, n-1
+	cI, cW := len(s.vars), len(s.vars)+1
 	R[cI] = math.Log(sums.I2/2) - s.lnI
 	s.scale[cI] = 1
 	awCalc := waterActivity(sums.S)
@@ -814,9 +834,13 @@ func (s *solver) scaleRows(R, J []float64) (maxAbs, sumSq float64) {
 // newton runs Newton–Raphson with a step limit and a non-monotone
 // backtracking line search until the scaled residuals have converged.
 func (s *solver) newton() error {
-	n := len(s.vars) + 2
-	cI, cW := n-2, n-1
+	nb := len(s.vars) + 2 // unknowns of the speciation; then the amounts of eq
+	n := nb + len(s.eq)
+	cI, cW := nb-2, nb-1
 	s.iterations = 0
+	for q := range s.eq {
+		s.eqX[q] = 0
+	}
 	// Once the residuals are small, the factorised Jacobian of the previous
 	// iteration is reused (a chord step): the last iterations then cost a
 	// residual and a back-substitution instead of a Jacobian and an LU.
@@ -825,7 +849,11 @@ func (s *solver) newton() error {
 	// molalities at the top of every iteration and held during the step;
 	// the solve has converged when the residuals and the refresh both are.
 	pitzer := s.pitzerActive()
-	for it := 0; it < maxIterations; it++ {
+	limit := maxIterations
+	if len(s.eq) > 0 {
+		limit = maxEquilibriumIterations
+	}
+	for it := 0; it < limit; it++ {
 		s.iterations = it + 1
 		var lagMove float64
 		if pitzer {
@@ -838,7 +866,7 @@ func (s *solver) newton() error {
 		if math.IsNaN(sumSq) || math.IsInf(sumSq, 0) {
 			return fmt.Errorf("%w: residual became NaN", ErrNoConvergence)
 		}
-		if maxAbs < tolerance && lagMove < pitzerTolerance {
+		if maxAbs < s.tol && lagMove < pitzerTolerance {
 			return nil
 		}
 		if chord && maxAbs > 0.1*prevMax {
@@ -860,7 +888,7 @@ func (s *solver) newton() error {
 		}
 		// Limit the step to a factor of 10 in any molality, in I or in a_w.
 		var big float64
-		for k := 0; k < n; k++ {
+		for k := 0; k < nb; k++ {
 			big = math.Max(big, math.Abs(s.dx[k]))
 		}
 		if math.IsNaN(big) {
@@ -870,16 +898,29 @@ func (s *solver) newton() error {
 		if big > math.Ln10 {
 			lambda = math.Ln10 / big
 		}
+		if len(s.eq) > 0 {
+			// The amounts' part of the step stops short of taking out
+			// what the water holds (the speciation's part is kept).
+			dxEq := s.dx[nb:n]
+			f := s.equilibriumStep(dxEq, lambda)
+			for q := range dxEq {
+				dxEq[q] *= f
+			}
+		}
 		for k, j := range s.vars {
 			s.save[k] = s.lnm[j]
 		}
 		s.save[cI], s.save[cW] = s.lnI, s.lnaw
+		copy(s.save[nb:n], s.eqX[:len(s.eq)])
 		for try := 0; try < 12; try++ {
 			for k, j := range s.vars {
 				s.lnm[j] = s.save[k] + lambda*s.dx[k]
 			}
 			s.lnI = s.save[cI] + lambda*s.dx[cI]
 			s.lnaw = math.Min(s.save[cW]+lambda*s.dx[cW], 0)
+			for q := range s.eq {
+				s.eqX[q] = s.save[nb+q] + lambda*s.dx[nb+q]
+			}
 			if try == 11 || maxAbs < 1e-6 || lambda*big < 0.5 {
 				break // a small step near the solution is taken as it is
 			}
@@ -894,5 +935,5 @@ func (s *solver) newton() error {
 		}
 	}
 	maxAbs, _ := s.evaluate(false)
-	return fmt.Errorf("%w after %d iterations (largest relative residual %.2g)", ErrNoConvergence, maxIterations, maxAbs)
+	return fmt.Errorf("%w after %d iterations (largest relative residual %.2g)", ErrNoConvergence, limit, maxAbs)
 }

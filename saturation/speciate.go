@@ -163,6 +163,8 @@ type Speciator struct {
 	// evaluated at other temperatures or in other modes.
 	fix       carbonFix
 	fixCached bool
+	// lastSearch is the last mineral-to-equilibrium answer (precipitate.go).
+	lastSearch searchMemo
 }
 
 // fixKey identifies what a carbon fix depends on: the analysis (totals, pH,
