@@ -78,7 +78,7 @@ func TestJointActiveSet(t *testing.T) {
 	rng := rand.New(rand.NewPCG(31, 32))
 	sp := NewSpeciator(nil)
 	checked := 0
-	for w := 0; w < 80; w++ {
+	for w := 0; w < 200; w++ {
 		a := randomWater(rng)
 		r, err := sp.Speciate(a, Options{})
 		if err != nil {
