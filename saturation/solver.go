@@ -118,6 +118,10 @@ type solver struct {
 // maxEquilibria bounds the minerals of one equilibrium solve.
 const maxEquilibria = 12
 
+// maxUnknowns bounds the unknowns of one solve: the masters, ln I, ln a_w
+// and the amounts of an equilibrium solve (newSolver panics beyond it).
+const maxUnknowns = 64
+
 // maxIterations bounds the Newton–Raphson iterations of one solve;
 // maxEquilibriumIterations those of an equilibrium solve, whose callers
 // then fall back on a search over ordinary solves.
@@ -138,6 +142,9 @@ const tolerance = 1e-12
 func newSolver(m *Model) *solver {
 	nm, ns := len(m.masters), len(m.species)
 	n := nm + 2 + maxEquilibria
+	if n > maxUnknowns {
+		panic(fmt.Sprintf("saturation: %d masters are more than the solver holds", nm))
+	}
 	other := tempCache{lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
 		mineralOwnLogK: make([]float64, len(m.minerals))}
 	return &solver{other: other, m: m, nm: nm, ns: ns,
@@ -594,7 +601,7 @@ func (s *solver) evaluate(jac bool) (maxAbs, sumSq float64) {
 		}
 	}
 	// Column of each master's unknown, −1 if none.
-	var colBuf [32]int
+	var colBuf [maxUnknowns]int
 	col := colBuf[:s.nm]
 	for j := range col {
 		col[j] = -1
@@ -648,7 +655,7 @@ func (s *solver) setActivity(I float64) (pitzer bool) {
 // rows, I2 = Σz²m and S = Σm, and their derivatives by each unknown.
 type speciesSums struct {
 	I2, S   float64
-	dI2, dS [34]float64
+	dI2, dS [maxUnknowns]float64
 }
 
 // speciesRows computes the molality of every live species and adds it to
