@@ -53,7 +53,7 @@ Invented tower basin,35,7.9,400,30,100,150,250,250
 		fmt.Println("gypsum:", s.RiskBand["gypsum"])
 	}
 	// Output:
-	// Invented tower basin at 35 °C (davies), error <nil>
+	// Invented tower basin at 35 °C (pitzer), error <nil>
 	// calcite: supersaturated – within inhibitor reach
 	// gypsum: undersaturated
 }

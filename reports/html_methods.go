@@ -31,7 +31,7 @@ func (b *builder) methods() methodsView {
 	}
 	slices.Sort(models)
 	if o.Plan.Speciation.Activity == saturation.Auto {
-		mv.Activity = "Chosen by ionic strength: Davies up to 0.1 mol/kg, Truesdell–Jones (extended Debye–Hückel) above. " +
+		mv.Activity = "The Pitzer specific-interaction model (Harvie, Møller & Weare 1984 parameters) for every water, fresh to saturated brine; minor components outside its parameter set keep ion-association coefficients. " +
 			"Used in this report: " + strings.Join(models, ", ") + "."
 	} else {
 		mv.Activity = "As asked: " + o.Plan.Speciation.Activity.String() + "."

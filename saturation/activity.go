@@ -3,6 +3,7 @@ package saturation
 import (
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 
 	"scalerisk/water"
@@ -11,7 +12,9 @@ import (
 // ActivityModel names a model of single-ion activity coefficients.
 type ActivityModel int
 
-// The activity models. Auto chooses by ionic strength (see ChooseModel).
+// The activity models. Auto is the Pitzer model set for every water, with
+// the ion-association set only where it does not solve (see
+// Speciator.Speciate).
 const (
 	Auto           ActivityModel = iota
 	Davies                       // Davies (1962), 0.3 I
@@ -53,31 +56,40 @@ func ParseActivityModel(s string) (ActivityModel, error) {
 // to NaCl saturation (6.1 mol/kg) without a warning.
 var modelLimit = map[ActivityModel]float64{Davies: 0.5, TruesdellJones: 2, BDot: 1, Pitzer: 6.2}
 
-// daviesAutoLimit is the ionic strength, mol/kg, up to which Auto chooses
-// Davies (the common practice for fresh and cooling waters, as in Standard
-// Methods 2330); above it Auto chooses Truesdell–Jones.
-const daviesAutoLimit = 0.1
+// pitzerCoverage is the share of a water's stoichiometric ionic strength
+// that components outside the Pitzer parameter set may carry before a
+// result under the automatic model says so: beyond a quarter their
+// ion-association activity coefficients, and the missing interactions
+// between them and the major ions, move the others' coefficients noticeably
+// (a judgement, not a published limit).
+const pitzerCoverage = 0.25
 
-// pitzerAutoLimit is the ionic strength, mol/kg, above which Auto chooses
-// the Pitzer model set (decided on the Truesdell–Jones solution). Up to
-// about 1 mol/kg the ion-association set is as good as the data behind it
-// and its ion pairs are fitted there; above it its sulfate and carbonate
-// activities and its mixing behaviour drift (thermo.md §8: ion association
-// for I ≲ 0.5–1), while the Pitzer set is fitted to concentrated solutions.
-// Seawater (I ≈ 0.7) therefore stays with the ion-association set; RO
-// concentrate of seawater and oilfield brines go to Pitzer.
-const pitzerAutoLimit = 1.0
-
-// ChooseModel returns the model Auto selects for a water of ionic strength
-// I mol/kg: Davies up to 0.1, Truesdell–Jones up to 1, Pitzer above.
-func ChooseModel(I float64) ActivityModel {
-	switch {
-	case I <= daviesAutoLimit:
-		return Davies
-	case I <= pitzerAutoLimit:
-		return TruesdellJones
+// outsideShare returns the share of the stoichiometric ionic strength
+// ½Σz²m of component totals tot (mol/kg) carried by the components in
+// outside. Each component counts as the ion of an ion balance
+// (water.Component.Charge), inorganic carbon as hydrogencarbonate (charge
+// 1): the ionic strength before ion pairing, a property of the water
+// independent of any activity model.
+func outsideShare(tot func(water.Component) float64, outside []water.Component) float64 {
+	var all, out float64
+	for c := range water.NumComponents {
+		z := c.Charge()
+		if c == water.C {
+			z = 1
+		}
+		v := tot(c) * z * z / 2
+		if math.IsNaN(v) || v <= 0 {
+			continue
+		}
+		all += v
+		if slices.Contains(outside, c) {
+			out += v
+		}
 	}
-	return Pitzer
+	if all <= 0 {
+		return 0
+	}
+	return out / all
 }
 
 // Permittivity returns the relative permittivity of water at 1 atm and

@@ -36,8 +36,8 @@ func ExampleSpeciate() {
 	fmt.Printf("at %.0f °C: pH %.2f, I %.4f mol/kg (%s)\n", r.Temperature, r.PH, r.IonicStrength, r.Activity)
 	fmt.Printf("calcite SI %+.2f: %s\n", si, saturation.RiskBand("calcite", si))
 	// Output:
-	// at 30 °C: pH 8.14, I 0.0257 mol/kg (davies)
-	// calcite SI +1.11: supersaturated – within inhibitor reach
+	// at 30 °C: pH 8.14, I 0.0298 mol/kg (pitzer)
+	// calcite SI +1.14: supersaturated – within inhibitor reach
 }
 
 // ExampleSweep prints results for an invented water.
@@ -57,9 +57,9 @@ func ExampleSweep() {
 		fmt.Printf("%2.0f °C: calcite SI %+.2f\n", p.X, si)
 	}
 	// Output:
-	// 20 °C: calcite SI +1.10
-	// 50 °C: calcite SI +1.14
-	// 80 °C: calcite SI +1.23
+	// 20 °C: calcite SI +1.13
+	// 50 °C: calcite SI +1.17
+	// 80 °C: calcite SI +1.27
 }
 
 // ExampleDoseToTarget prints results for an invented water.
@@ -79,7 +79,7 @@ func ExampleDoseToTarget() {
 	after, _ := d.After.Result.SI("gypsum")
 	fmt.Printf("%.1f mg/L of %g %% sulfuric acid; gypsum SI %+.3f → %+.3f\n", d.Dose, d.Strength, before, after)
 	// Output:
-	// 26.8 mg/L of 93 % sulfuric acid; gypsum SI -0.965 → -0.937
+	// 27.9 mg/L of 93 % sulfuric acid; gypsum SI -0.913 → -0.883
 }
 
 // ExampleMaxCycles prints results for an invented water.

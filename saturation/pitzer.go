@@ -45,8 +45,20 @@ const pitzerTolerance = 1e-11
 
 // pitzerSignificant is the change of ln γ above which a parameter is taken
 // to matter: a parameter known at 25 °C only, or held at the end of its
-// range, is named in a warning when it moves some ln γ by more than this.
+// range, is named in a warning when its unknown change with temperature
+// (pitzerTypicalDrift) may move some ln γ by more than this.
 const pitzerSignificant = 0.01
+
+// pitzerTypicalDrift is the relative change per kelvin assumed for a
+// parameter known at 25 °C only (or used beyond its fitted range), when
+// judging whether its unknown
+// temperature dependence matters: about 1 %/K, within the 0.2–2 %/K of the
+// β1 and β2 derivatives of Silvester & Pitzer (1979) (Pitzer 1991 ch. 3
+// Tables 12–13; thermo.md §6.3 [READ]) — the binary β0 and Cφ, small
+// themselves, change faster relatively but move ln γ little. So a term
+// that moves ln γ by 0.2 is named 5 K away from 25 °C, one of 0.02 at
+// 50 K. A judgement, not a published rule.
+const pitzerTypicalDrift = 0.01
 
 // pzBinVals are the binary parameters of one pair at one temperature.
 type pzBinVals struct {

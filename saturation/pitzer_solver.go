@@ -110,7 +110,13 @@ func (s *solver) pitzerWarnings(t float64) []string {
 		if !constant && !outside {
 			continue
 		}
-		size := ps.contribution(tm, I, sig)
+		// What matters is the unknown change since 25 °C (or beyond the
+		// fitted range), not the whole term: a typical share per kelvin.
+		away := math.Abs(t - 25)
+		if outside {
+			away = math.Max(p.tMin-t, t-p.tMax)
+		}
+		size := ps.contribution(tm, I, sig) * math.Min(1, pitzerTypicalDrift*away)
 		if size <= pitzerSignificant {
 			continue
 		}
@@ -144,15 +150,21 @@ func (s *solver) pitzerWarnings(t float64) []string {
 	if len(held) > 0 {
 		out = append(out, fmt.Sprintf("Pitzer parameters outside their fitted temperature range at %.4g °C, held at the range limit: %s", t, list(held)))
 	}
-	var outside []string
-	for _, c := range set.fallback {
-		if s.p.totals[set.model.compMaster[c]] > 0 || (c == water.C && s.p.cRow != rowAbsent) {
-			outside = append(outside, c.String())
+	share := outsideShare(func(c water.Component) float64 {
+		if c == water.C && s.p.cRow == rowAbsent {
+			return 0
 		}
-	}
-	if len(outside) > 0 {
-		out = append(out, fmt.Sprintf("components outside the Pitzer parameter set (%s) keep ion-association (Truesdell–Jones) activity coefficients",
-			strings.Join(outside, ", ")))
+		return s.p.totals[set.model.compMaster[c]]
+	}, set.fallback)
+	if share > pitzerCoverage {
+		var outside []string
+		for _, c := range set.fallback {
+			if s.p.totals[set.model.compMaster[c]] > 0 || (c == water.C && s.p.cRow != rowAbsent) {
+				outside = append(outside, c.String())
+			}
+		}
+		out = append(out, fmt.Sprintf("%.0f %% of the ionic strength is carried by components outside the Pitzer parameter set (%s), which keep ion-association (Truesdell–Jones) activity coefficients: saturation indices are less certain than for a water of the major ions",
+			100*share, strings.Join(outside, ", ")))
 	}
 	return out
 }

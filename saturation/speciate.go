@@ -46,7 +46,8 @@ const LogPCO2Air = -3.4
 // its own temperature, closed carbonate system, activity model chosen
 // automatically, with the embedded thermodynamic table.
 type Options struct {
-	// Activity is the activity model; Auto chooses by ionic strength.
+	// Activity is the activity model; Auto is the Pitzer model set for
+	// every water (Speciator.Speciate says how it falls back).
 	Activity ActivityModel
 	// AtTemperature, when true, evaluates at Temperature °C instead of the
 	// sample's own temperature.
@@ -250,30 +251,42 @@ func (sp *Speciator) Speciate(a water.Analysis, opt Options) (*Result, error) {
 	if t > warnTemperature {
 		warnings = append(warnings, fmt.Sprintf("%.4g °C is above 100 °C: constants are extrapolated beyond their fitted range at 1 atm", t))
 	}
-	res, err := sp.speciateModel(a, opt, t, opt.Activity)
-	if opt.Activity == Auto && (err != nil || res.IonicStrength > daviesAutoLimit) {
-		// Davies is for fresh waters; beyond 0.1 mol/kg (or where its
-		// −0.3·I term drives the solution away) Truesdell–Jones takes over.
-		res, err = sp.speciateModel(a, opt, t, TruesdellJones)
-	}
+	var res *Result
+	var err error
 	if opt.Activity == Auto {
-		// Brines: beyond 1 mol/kg (on the Truesdell–Jones solution) the
-		// Pitzer model set takes over (see pitzerAutoLimit).
-		switch {
-		case err == nil && res.IonicStrength > pitzerAutoLimit:
-			res, err = sp.speciateModel(a, opt, t, Pitzer)
-		case err != nil:
-			// Truesdell–Jones failed: a brine may still solve under Pitzer.
-			if pr, perr := sp.speciateModel(a, opt, t, Pitzer); perr == nil && pr.IonicStrength > pitzerAutoLimit {
-				res, err = pr, nil
-			}
-		}
+		res, err = sp.speciateAuto(a, opt, t)
+	} else {
+		res, err = sp.speciateModel(a, opt, t, opt.Activity)
 	}
 	if err != nil {
 		return nil, fmt.Errorf("%s: %w", a.Name, err)
 	}
 	res.Warnings = append(warnings, res.Warnings...)
 	return res, nil
+}
+
+// speciateAuto is the automatic activity treatment: the Pitzer model set
+// for every water, from fresh water to saturated NaCl. Its parameters cover
+// the major ions of natural and process waters (Na, K, Ca, Mg, Ba, Sr, Cl,
+// SO4 and the carbonate system); the minor components outside it (Fe, Mn,
+// Si, P, F, NO3, B) keep ion-association activity coefficients inside it,
+// and a water whose ionic strength they carry in large part says so
+// (pitzerCoverage). There is no switch between models, so a cycles
+// or blend curve has no step. Only where the Pitzer set does not solve does
+// the ion-association set take over (Truesdell–Jones, then Davies), with a
+// warning; the result names the model used.
+func (sp *Speciator) speciateAuto(a water.Analysis, opt Options, t float64) (*Result, error) {
+	res, err := sp.speciateModel(a, opt, t, Pitzer)
+	if err == nil {
+		return res, nil
+	}
+	for _, m := range []ActivityModel{TruesdellJones, Davies} {
+		if r, e := sp.speciateModel(a, opt, t, m); e == nil {
+			r.Warnings = append(r.Warnings, fmt.Sprintf("the Pitzer model set did not solve this water (%v): ion association (%s) used instead", err, m))
+			return r, nil
+		}
+	}
+	return nil, err
 }
 
 func (sp *Speciator) speciateModel(a water.Analysis, opt Options, t float64, model ActivityModel) (*Result, error) {

@@ -282,8 +282,8 @@ func TestPureNaCl(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if r.Activity != TruesdellJones {
-		t.Errorf("model for I = 0.5 = %s, want truesdell-jones (automatic choice)", r.Activity)
+	if r.Activity != Pitzer {
+		t.Errorf("model for I = 0.5 = %s, want pitzer (automatic choice)", r.Activity)
 	}
 	if math.Abs(r.PH-7.0) > 0.05 {
 		t.Errorf("pH of neutral NaCl solution = %.3f, want about 7.0 (charge balance, pKw 13.995)", r.PH)
@@ -291,7 +291,7 @@ func TestPureNaCl(t *testing.T) {
 	if len(r.Minerals) != 1 || r.Minerals[0].Name != "halite" || r.Minerals[0].SI > -2 {
 		t.Errorf("a 0.5 mol/kg NaCl water has minerals %v; want only halite, far undersaturated", r.Minerals)
 	}
-	// Truesdell–Jones γ± of NaCl at 0.5 mol/kg: 0.681 (Robinson & Stokes
+	// γ± of NaCl at 0.5 mol/kg: 0.681 (Robinson & Stokes
 	// 1959, from memory); the model is fitted to such data, tolerance 0.02.
 	gNa, gCl := 0.0, 0.0
 	for _, s := range r.Species {
