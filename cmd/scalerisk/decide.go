@@ -202,11 +202,16 @@ func loadProfile(name string, m *saturation.Model) (saturation.LimitProfile, err
 	return ps[0], nil
 }
 
+// sweepFlags are the flags of sweep beyond the shared ones.
+type sweepFlags struct {
+	vary                        []string
+	reagent, partner, carbonate string
+	strength                    float64
+}
+
 func newSweepCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
-	var vary []string
-	var reagent, partner, carbonate string
-	var strength float64
+	sf := &sweepFlags{}
 	cmd := &cobra.Command{
 		Use:   "sweep [FILE...|-] --vary NAME=FROM:TO:N [--vary NAME=FROM:TO:N]",
 		Short: "Every saturation index and index of each water over a range of temperature, cycles, dose or blend",
@@ -220,54 +225,9 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			if len(vary) == 0 || len(vary) > 2 {
-				return badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
-			}
-			rule, err := saturation.ParseCarbonateRule(carbonate)
+			x, y, err := sf.axes(stdin, ropt, &opt)
 			if err != nil {
-				return badInput(err)
-			}
-			towerRule := rule.A != 0 || rule.SetPoint != 0
-			if !towerRule {
-				opt.Carbonate = rule.Mode
-			}
-			axes := make([]saturation.Axis, len(vary))
-			for i, v := range vary {
-				if axes[i], err = parseAxis(v); err != nil {
-					return badInput(err)
-				}
-				switch axes[i].Var {
-				case saturation.VaryDose:
-					r, err := water.LookupReagent(reagent)
-					if err != nil {
-						return badInput(fmt.Errorf("--vary dose needs --reagent: %w", err))
-					}
-					axes[i].Reagent, axes[i].Strength = r, strength
-				case saturation.VaryFraction:
-					pw, err := firstSample(partner, stdin, ropt)
-					if err != nil {
-						return err
-					}
-					axes[i].Partner = pw
-				}
-			}
-			if towerRule {
-				found := false
-				for i := range axes {
-					if axes[i].Var == saturation.VaryCycles {
-						axes[i].Rule, found = &rule, true
-					}
-				}
-				if !found {
-					return badInput(fmt.Errorf("--carbonate %s is a rule for cycles: give --vary cycles=…, or use closed or air", carbonate))
-				}
-			}
-			var y *saturation.Axis
-			if len(axes) == 2 {
-				if axes[0].Var == axes[1].Var {
-					return badInput(fmt.Errorf("--vary %s is given twice", axes[0].Var))
-				}
-				y = &axes[1]
+				return err
 			}
 			run, src, err := c.runner(cmd, args, stdin, ropt)
 			if err != nil {
@@ -277,8 +237,8 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			return stream(run, src, w, batch[reports.SweepOutcome]{
 				newWorker: func() func(string, water.Record) (reports.SweepOutcome, error) {
 					return func(_ string, rec water.Record) (reports.SweepOutcome, error) {
-						pts, err := saturation.Sweep(rec.Analysis, axes[0], y, opt)
-						return reports.SweepOutcome{Name: rec.Name, X: axes[0], Y: y, Points: pts, Err: err}, err
+						pts, err := saturation.Sweep(rec.Analysis, x, y, opt)
+						return reports.SweepOutcome{Name: rec.Name, X: x, Y: y, Points: pts, Err: err}, err
 					}
 				},
 			})
@@ -286,12 +246,66 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	}
 	c.register(cmd)
 	f := cmd.Flags()
-	f.StringArrayVar(&vary, "vary", nil, "variable and range: temperature|cycles|dose|fraction=FROM:TO:N (once or twice)")
-	f.StringVar(&reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
-	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
-	f.StringVar(&partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
-	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or ph=VALUE (acid control), as in cycles")
+	f.StringArrayVar(&sf.vary, "vary", nil, "variable and range: temperature|cycles|dose|fraction=FROM:TO:N (once or twice)")
+	f.StringVar(&sf.reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
+	f.Float64Var(&sf.strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+	f.StringVar(&sf.partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
+	f.StringVar(&sf.carbonate, "carbonate", "closed", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or ph=VALUE (acid control), as in cycles")
 	return cmd
+}
+
+// axes turns the flags into the swept axes, x and y (nil for one --vary),
+// and sets the carbonate mode of opt; a bad flag is a bad-input error.
+func (sf *sweepFlags) axes(stdin io.Reader, ropt water.ReadOptions, opt *saturation.Options) (saturation.Axis, *saturation.Axis, error) {
+	if len(sf.vary) == 0 || len(sf.vary) > 2 {
+		return saturation.Axis{}, nil, badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
+	}
+	rule, err := saturation.ParseCarbonateRule(sf.carbonate)
+	if err != nil {
+		return saturation.Axis{}, nil, badInput(err)
+	}
+	towerRule := rule.A != 0 || rule.SetPoint != 0
+	if !towerRule {
+		opt.Carbonate = rule.Mode
+	}
+	axes := make([]saturation.Axis, len(sf.vary))
+	for i, v := range sf.vary {
+		if axes[i], err = parseAxis(v); err != nil {
+			return saturation.Axis{}, nil, badInput(err)
+		}
+		switch axes[i].Var {
+		case saturation.VaryDose:
+			r, err := water.LookupReagent(sf.reagent)
+			if err != nil {
+				return saturation.Axis{}, nil, badInput(fmt.Errorf("--vary dose needs --reagent: %w", err))
+			}
+			axes[i].Reagent, axes[i].Strength = r, sf.strength
+		case saturation.VaryFraction:
+			pw, err := firstSample(sf.partner, stdin, ropt)
+			if err != nil {
+				return saturation.Axis{}, nil, err
+			}
+			axes[i].Partner = pw
+		}
+	}
+	if towerRule {
+		found := false
+		for i := range axes {
+			if axes[i].Var == saturation.VaryCycles {
+				axes[i].Rule, found = &rule, true
+			}
+		}
+		if !found {
+			return saturation.Axis{}, nil, badInput(fmt.Errorf("--carbonate %s is a rule for cycles: give --vary cycles=…, or use closed or air", sf.carbonate))
+		}
+	}
+	if len(axes) == 1 {
+		return axes[0], nil, nil
+	}
+	if axes[0].Var == axes[1].Var {
+		return saturation.Axis{}, nil, badInput(fmt.Errorf("--vary %s is given twice", axes[0].Var))
+	}
+	return axes[0], &axes[1], nil
 }
 
 // parseAxis reads NAME=FROM:TO:N.

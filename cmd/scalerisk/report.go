@@ -111,14 +111,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if err != nil {
 		return err
 	}
-	rep := reports.Report{Title: o.title, Client: o.client, Options: hopt}
-	switch o.date {
-	case "":
-		rep.Date = time.Now().Format("2 January 2006")
-	case "none":
-	default:
-		rep.Date = o.date
-	}
+	rep := reports.Report{Title: o.title, Client: o.client, Date: reportDate(o.date), Options: hopt}
 	hw, err := reports.NewHTMLWriter(rep)
 	if err != nil {
 		return badInput(err)
@@ -165,6 +158,18 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, samples)
 	}
 	return r.exit()
+}
+
+// reportDate is the date shown on the report for --date d: today when d
+// is empty, none for "none", else d as given.
+func reportDate(d string) string {
+	switch d {
+	case "":
+		return time.Now().Format("2 January 2006")
+	case "none":
+		return ""
+	}
+	return d
 }
 
 // settings turns the flags of report into what the plan of every sample
