@@ -273,10 +273,12 @@ var ionGroups = []ionGroup{
 	{name: "Na", cation: true, color: colGreen, text: "#000000", components: []water.Component{water.Na}},
 	{name: "K", cation: true, color: colPurple, text: "#000000", components: []water.Component{water.K}},
 	{name: "Ba, Sr, Fe, Mn", cation: true, color: colSky, text: "#000000", components: []water.Component{water.Ba, water.Sr, water.Fe, water.Mn}},
+	{name: "Li, NH₄", cation: true, color: "#DDDDDD", text: "#000000", components: []water.Component{water.Li, water.NH4}},
 	{name: "alkalinity", color: colVermilion, text: "#000000", alkalinity: true},
 	{name: "SO₄", color: colYellow, text: "#000000", components: []water.Component{water.S}},
 	{name: "Cl", color: "#8A8A8A", text: "#000000", components: []water.Component{water.Cl}},
 	{name: "NO₃, F", color: "#C9C9C9", text: "#000000", components: []water.Component{water.N, water.F}},
+	{name: "Br, I", color: "#5E5E5E", text: "#ffffff", components: []water.Component{water.Br, water.I}},
 }
 
 // compositionOf sums the cations and anions of a as meq/L (the charge of

@@ -219,6 +219,14 @@ func componentLabel(c water.Component) string {
 		return "manganese (Mn²⁺)"
 	case water.B:
 		return "boron (B)"
+	case water.Br:
+		return "bromide (Br)"
+	case water.I:
+		return "iodide (I)"
+	case water.Li:
+		return "lithium (Li)"
+	case water.NH4:
+		return "ammonia (as NH₄)"
 	}
 	return c.String()
 }
