@@ -13,6 +13,7 @@ import (
 	"math"
 
 	"scalerisk/saturation"
+	"scalerisk/uncertainty"
 	"scalerisk/water"
 )
 
@@ -63,6 +64,9 @@ type Settings struct {
 	// (the sample's share, 0–1 by volume).
 	Partner       *water.Analysis
 	BlendFraction float64
+	// Uncertainty configures the Monte Carlo draws of every sample's
+	// analysis (see package uncertainty); Draws 0 computes none.
+	Uncertainty uncertainty.Settings
 }
 
 // Check reports the first setting out of range: SkinTemperature outside
@@ -82,6 +86,8 @@ func (s Settings) Check() error {
 		return fmt.Errorf("reagent strength %g %% is outside 0–100 %%", s.Strength)
 	case s.Partner != nil && !(s.BlendFraction >= 0 && s.BlendFraction <= 1):
 		return fmt.Errorf("blend fraction %g: want a share from 0 to 1", s.BlendFraction)
+	case s.Uncertainty.Draws != 0:
+		return s.Uncertainty.Check()
 	}
 	return nil
 }
@@ -166,6 +172,8 @@ type Sample struct {
 	// Passes are the minerals that go past their limit along the
 	// temperature, cycles and dose sweeps, and where.
 	Passes []Pass
+	// Uncertainty is the Monte Carlo part (nil without draws).
+	Uncertainty *Uncertainty
 	// Errors are the parts that could not be computed, in the order of the
 	// steps.
 	Errors []Error
@@ -209,6 +217,7 @@ type step struct {
 var steps = []step{
 	{"dose search", doseStep},
 	{"highest-cycles search", cyclesStep},
+	{"uncertainty", uncertaintyStep},
 	{"blend", blendStep},
 	{"temperature sweep", temperatureStep},
 	{"cycles sweep", cyclesSweepStep},

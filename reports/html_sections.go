@@ -114,13 +114,14 @@ func (b *builder) section(index int, s *plan.Sample) sampleView {
 			}
 		}
 		sv.Minerals = append(sv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
-			SI: signed(m.SI, 2), Limit: limit, LogK: num(m.LogK, 3), Band: b.band(m.Name, m.SI)})
+			SI: signed(m.SI, 2), Limit: limit, LogK: num(m.LogK, 3), Band: b.band(m.Name, m.SI), key: m.Name})
 	}
 
 	sw := b.sweeps(s)
 	sv.Facts = b.facts(s, sw)
 	sv.Findings = b.findings(s, sw)
 	sv.Charts, sv.ChartNotes = b.sampleCharts(index, s, sw)
+	sv.Uncertainty = b.uncertaintyOf(&sv, fmt.Sprintf("s%d-ranges", index+1), s)
 	sv.Indices = indexRows(s.Indices)
 	sv.IndicesAt = num(r.Temperature, 1) + " °C"
 	sv.Scale, sv.ScaleKg = scaleRows(s.Precipitation, s.Flow), s.Flow > 0

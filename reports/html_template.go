@@ -177,9 +177,9 @@ a { color: var(--accent); }
 <p class="muted small">The full speciation of the sample (free ions, ion pairs and complexes) solved at the temperature shown. The inhibitor limit is the saturation index an antiscalant programme usually holds; a product's own limits govern.</p>
 </div>
 <table class="minerals">
-<thead><tr><th>Mineral</th><th>Formula</th><th class="n">SI</th><th>Risk band</th><th class="n">Inhibitor limit</th><th class="n">log K</th></tr></thead>
+<thead><tr><th>Mineral</th><th>Formula</th><th class="n">SI</th>{{if .Intervals}}<th class="n">{{.IntervalHead}}</th><th class="n">P(SI &gt; 0)</th>{{end}}<th>Risk band</th><th class="n">Inhibitor limit</th><th class="n">log K</th></tr></thead>
 <tbody>
-{{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td><td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td><td class="n">{{.Limit}}</td><td class="n">{{.LogK}}</td></tr>{{end}}
+{{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td>{{if .Interval}}<td class="n">{{.Interval}}</td><td class="n">{{.PAbove}}</td>{{end}}<td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td><td class="n">{{.Limit}}</td><td class="n">{{.LogK}}</td></tr>{{end}}
 </tbody>
 </table>
 {{- end}}
@@ -234,6 +234,15 @@ a { color: var(--accent); }
 </tbody></table>
 {{- end}}
 {{- range .Notes}}<p class="muted small">{{.}}</p>{{end}}
+{{- end}}
+{{- with .Uncertainty}}
+<h3>How sure are these answers</h3>
+<p>{{.Run}}</p>
+{{- if .Answers}}<ul>{{range .Answers}}<li>{{.}}</li>{{end}}</ul>{{end}}
+{{- if .Narrowing}}<p>{{.Narrowing}}</p>{{end}}
+{{- if .Inputs}}<p class="muted small">{{.Inputs}}</p>{{end}}
+{{- if .Meaning}}<p class="muted small">{{.Meaning}}</p>{{end}}
+{{- if .Notes}}<ul class="small">{{range .Notes}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{- end}}
 
 <h3>The analysis as entered and as used</h3>

@@ -69,6 +69,11 @@ type fact struct {
 type mineralRow struct {
 	Name, Formula, SI, Limit, LogK string
 	Band                           chip
+	// Interval and PAbove are the range of the SI over the draws of the
+	// analysis and the probability of SI > 0 (html_uncertainty.go); empty
+	// without draws. key is the mineral's name in the results.
+	Interval, PAbove string
+	key              string
 }
 
 type chartView struct {
@@ -111,6 +116,12 @@ type sampleView struct {
 	// empty for a computed sample.
 	SpeciationError       string
 	SpeciationErrorDetail string
+	// Intervals says the SI table has the range columns (IntervalHead
+	// heads the first); Uncertainty is the part on how sure the answers
+	// are. Both only with draws of the analysis.
+	Intervals    bool
+	IntervalHead string
+	Uncertainty  *uncertaintyView
 }
 
 type methodsView struct {

@@ -32,6 +32,7 @@ type reportOptions struct {
 	detail        int
 	blendWith     string
 	blendFraction float64
+	uncertainty   uncertaintyFlags
 }
 
 func newReportCmd(stdin io.Reader) *cobra.Command {
@@ -58,6 +59,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },
 	}
 	o.common.register(cmd)
+	o.uncertainty.register(cmd)
 	// The report is HTML; the shared --format and --indent flags do not
 	// apply.
 	for _, name := range []string{"format", "indent"} {
@@ -177,6 +179,11 @@ func reportDate(d string) string {
 func (o *reportOptions) settings(opt saturation.Options, ropt water.ReadOptions, stdin io.Reader) (plan.Settings, error) {
 	s := plan.Settings{Speciation: opt, SkinTemperature: o.common.skin, MaxCycles: o.maxCycles,
 		Strength: o.strength, MaxDose: o.maxDose}
+	mc, _, err := o.uncertainty.settings()
+	if err != nil {
+		return s, err
+	}
+	s.Uncertainty = mc
 	reagent, err := water.LookupReagent(o.reagent)
 	if err != nil {
 		return s, badInput(err)
