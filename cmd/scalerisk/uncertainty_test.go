@@ -68,3 +68,21 @@ func TestDecisionDraws(t *testing.T) {
 		t.Errorf("cycles CSV header lacks max_cycles_at_confidence")
 	}
 }
+
+// TestReportDraws: report --draws shows the range columns of the SI table,
+// the range chart and the part on how sure the answers are; without
+// --draws none of them.
+func TestReportDraws(t *testing.T) {
+	r := mustRun(t, 0, "", "report", "--demo", "--draws", "30", "-o", "-")
+	for _, want := range []string{"5–95 % range", `id="s1-ranges"`, "How sure are these answers", "with 90 % confidence"} {
+		if !strings.Contains(r.stdout, want) {
+			t.Errorf("report --draws lacks %q", want)
+		}
+	}
+	plain := mustRun(t, 0, "", "report", "--demo", "-o", "-")
+	for _, absent := range []string{"% range", "-ranges", "How sure are these answers"} {
+		if strings.Contains(plain.stdout, absent) {
+			t.Errorf("report without --draws shows %q", absent)
+		}
+	}
+}
