@@ -157,11 +157,17 @@ func NewSample(name string) Sample {
 // point. Alkalinity comes from a total-alkalinity analyte when one is given,
 // else from the sum of HCO3, CO3 and OH.
 func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
+	return s.analysis(forms, append([]Measurement(nil), s.Measurements...))
+}
+
+// analysis is Analysis with entered as the analysis's Entered (a copy of
+// s.Measurements, or the reader's own slice, which it hands over).
+func (s Sample) analysis(forms *AnalyteTable, entered []Measurement) (Analysis, error) {
 	a := Analysis{Name: s.Name, Date: s.Date, Role: s.Role, System: s.System, Temperature: s.Temperature, PH: s.PH,
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
 		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
 		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity,
-		Entered: append([]Measurement(nil), s.Measurements...)}
+		Entered: entered}
 	if math.IsNaN(a.Temperature) {
 		a.Temperature = 25
 		a.Warnings = append(a.Warnings, "temperature not given: 25 °C assumed")
@@ -197,7 +203,7 @@ type sampleAmount struct {
 // amounts converts the measurements of s to amounts of their components
 // and notes the values below detection in a.
 func (s Sample) amounts(forms *AnalyteTable, a *Analysis) ([]sampleAmount, error) {
-	var amounts []sampleAmount
+	amounts := make([]sampleAmount, 0, len(s.Measurements))
 	for _, m := range s.Measurements {
 		if m.Value < 0 {
 			return nil, fmt.Errorf("%s: negative concentration %g", m.Column, m.Value)

@@ -179,11 +179,12 @@ func (rr *recordReader) next() (Record, error) {
 
 // reader holds the state of one Read.
 type reader struct {
-	file   string
-	cr     *csv.Reader
-	table  *AnalyteTable
-	policy DetectionPolicy
-	units  map[[2]string]classified // long form: classified (analyte, unit) pairs
+	analyteColumns int // wide form: the columns of analytes, for the capacity of a row's measurements
+	file           string
+	cr             *csv.Reader
+	table          *AnalyteTable
+	policy         DetectionPolicy
+	units          map[[2]string]classified // long form: classified (analyte, unit) pairs
 }
 
 func (rd *reader) fileError(line int, err error) *InputError {

@@ -228,6 +228,7 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 		if _, err := u.Amount(c.analyte, 1, rd.table); err != nil {
 			return c, true, err
 		}
+		c.unit = u.withForm(c.analyte.Component, rd.table)
 	}
 	return c, false, nil
 }

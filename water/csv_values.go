@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 )
 
 // DetectionPolicy says what a "<x" (below the detection limit x) value
@@ -92,9 +93,23 @@ var notDetected = map[string]bool{
 	"<dl": true, "< dl": true, "<lod": true, "< lod": true, "below detection limit": true,
 }
 
+// collapseSpaces trims s and collapses its runs of white space (non-breaking
+// spaces included) to one space; a cell that needs none of that, as most
+// do, is returned as it is, without allocating.
+func collapseSpaces(s string) string {
+	for i := 0; i < len(s); i++ {
+		c := s[i]
+		if c >= utf8.RuneSelf || c == '\t' || c == '\n' || c == '\v' || c == '\f' || c == '\r' ||
+			c == ' ' && (i == 0 || i == len(s)-1 || s[i+1] == ' ') {
+			return strings.Join(strings.Fields(strings.ReplaceAll(s, "\u00a0", " ")), " ")
+		}
+	}
+	return s
+}
+
 func parseCell(raw string) cellValue {
 	c := cellValue{raw: raw}
-	s := strings.Join(strings.Fields(strings.ReplaceAll(raw, "\u00a0", " ")), " ")
+	s := collapseSpaces(raw)
 	switch {
 	case s == "":
 		c.kind = cellBlank
@@ -246,7 +261,11 @@ func (b *sampleBuilder) setConcentration(c headerColumn, v cellValue, policy Det
 // analysis converts the sample; notes on not-detected values join the
 // warnings.
 func (b *sampleBuilder) analysis(table *AnalyteTable) (Analysis, error) {
-	a, err := b.s.Analysis(table)
+	entered := b.s.Measurements // the builder's own slice, handed over
+	if len(entered) == 0 {
+		entered = nil
+	}
+	a, err := b.s.analysis(table, entered)
 	if err != nil {
 		return Analysis{}, err
 	}

@@ -68,6 +68,14 @@ func (rd *reader) openWide(header []string, headerLine int) (func() (Record, err
 		}
 		return rowName(line)
 	}
+	for _, c := range cols {
+		if c.kind == fieldAnalyte {
+			rd.analyteColumns++
+		}
+	}
+	// From here no record outlives the next read: the reader may reuse
+	// its slice of fields (each record's text is still its own).
+	rd.cr.ReuseRecord = true
 	next := func() (Record, error) { return rd.nextWide(cols, name) }
 	return next, problems, nil
 }
@@ -112,6 +120,7 @@ func (rd *reader) wideRecord(cols []headerColumn, fields []string, name func([]s
 		return rec
 	}
 	b := sampleBuilder{s: NewSample(rec.Name)}
+	b.s.Measurements = make([]Measurement, 0, rd.analyteColumns)
 	for i, c := range cols {
 		v := parseCell(fields[i])
 		if v.kind == cellBlank {

@@ -46,6 +46,30 @@ type Unit struct {
 	amount   amountKind
 	scale    float64 // to g, mol or eq (concentrations), µS/cm or kg/L
 	tempUnit byte    // 'C', 'F' or 'K' for temperatures
+	// form caches, for a reader's column, the form of As resolved in one
+	// table for one component (see withForm): Amount then skips the lookup.
+	form resolvedForm
+}
+
+// resolvedForm is a form of "mg/L as X" looked up once (table nil when
+// none was).
+type resolvedForm struct {
+	table             *AnalyteTable
+	component         string
+	formMass, perForm float64
+}
+
+// withForm returns u with the form of u.As for component comp looked up in
+// forms, so that Amount with the same table and component does not search
+// it again (a reader's column converts every row with one unit).
+func (u Unit) withForm(comp string, forms *AnalyteTable) Unit {
+	if u.As == "" || u.amount != byMass {
+		return u
+	}
+	if form, ok := forms.FormOf(comp, u.As); ok {
+		u.form = resolvedForm{table: forms, component: comp, formMass: form.FormMass, perForm: form.PerForm}
+	}
+	return u
 }
 
 // UnitError reports a unit that is not recognised.
@@ -232,6 +256,9 @@ func (u Unit) Amount(a Analyte, v float64, forms *AnalyteTable) (float64, error)
 			return 0, fmt.Errorf("unit %q needs a charged form; %s is reported neutral", u.Text, a.Name)
 		}
 		return eq / math.Abs(a.Charge) * a.PerForm, nil
+	}
+	if f := &u.form; f.table == forms && f.table != nil && f.component == a.Component {
+		return x / f.formMass * f.perForm, nil
 	}
 	form, ok := forms.FormOf(a.Component, u.As)
 	if !ok {
