@@ -98,13 +98,16 @@ func above(xs []float64, limit float64) float64 {
 }
 
 // sensitivities fits every output column of s on the standardised inputs.
-// Rows where an output is NaN or infinite are left out of that output's fit.
+// Rows where an output is NaN or infinite are left out of that output's
+// fit. The outputs defined on every draw (the usual case) share one QR
+// factorisation of the design matrix.
 func sensitivities(s sample) []Sensitivity {
 	nOut := 0
 	if len(s.out) > 0 {
 		nOut = len(s.out[0])
 	}
 	res := make([]Sensitivity, nOut)
+	var shared *fitter
 	for o := range nOut {
 		var rows []int
 		for i := range s.out {
@@ -112,27 +115,38 @@ func sensitivities(s sample) []Sensitivity {
 				rows = append(rows, i)
 			}
 		}
-		res[o] = fitShares(s, rows, o)
+		if len(rows) < len(s.out) {
+			res[o] = newFitter(s, rows).fit(s, o)
+			continue
+		}
+		if shared == nil {
+			shared = newFitter(s, rows)
+		}
+		res[o] = shared.fit(s, o)
 	}
 	return res
 }
 
-// fitShares regresses output o on the standardised inputs over rows.
-func fitShares(s sample, rows []int, o int) Sensitivity {
+// fitter is the least-squares fit of outputs on the standardised inputs
+// over a set of draws: the design matrix (one column per input that
+// varies) and its QR factorisation.
+type fitter struct {
+	rows   []int
+	cols   []int // the inputs of the design's columns
+	design *mat.Dense
+	qr     mat.QR
+	ok     bool
+}
+
+// newFitter builds the design over rows; it is not ok when there are too
+// few rows or no input varies.
+func newFitter(s sample, rows []int) *fitter {
+	f := &fitter{rows: rows}
 	k := len(s.plan.inputs)
 	if len(rows) <= k+2 {
-		return Sensitivity{Explained: math.NaN()}
+		return f
 	}
-	y := make([]float64, len(rows))
-	for r, i := range rows {
-		y[r] = s.out[i][o]
-	}
-	my, sy := stat.MeanStdDev(y, nil)
-	if !(sy > 0) {
-		return Sensitivity{Explained: math.NaN()}
-	}
-	var cols []int
-	x := make([]float64, 0, len(rows)*k)
+	var data [][]float64
 	col := make([]float64, len(rows))
 	for j := range k {
 		for r, i := range rows {
@@ -142,37 +156,57 @@ func fitShares(s sample, rows []int, o int) Sensitivity {
 		if !(sx > 0) {
 			continue
 		}
-		cols = append(cols, j)
+		z := make([]float64, len(rows))
 		for r := range col {
-			x = append(x, (col[r]-mx)/sx)
+			z[r] = (col[r] - mx) / sx
 		}
+		f.cols, data = append(f.cols, j), append(data, z)
 	}
-	if len(cols) == 0 {
-		return Sensitivity{Explained: math.NaN()}
+	if len(f.cols) == 0 {
+		return f
 	}
-	// x holds the standardised columns one after another: its transpose is
-	// the design matrix.
-	design := mat.NewDense(len(cols), len(rows), x).T()
+	f.design = mat.NewDense(len(rows), len(f.cols), nil)
+	for c, z := range data {
+		f.design.SetCol(c, z)
+	}
+	f.qr.Factorize(f.design)
+	f.ok = true
+	return f
+}
+
+// fit regresses output o on the design.
+func (f *fitter) fit(s sample, o int) Sensitivity {
+	none := Sensitivity{Explained: math.NaN()}
+	if !f.ok {
+		return none
+	}
+	y := make([]float64, len(f.rows))
+	for r, i := range f.rows {
+		y[r] = s.out[i][o]
+	}
+	my, sy := stat.MeanStdDev(y, nil)
+	if !(sy > 0) {
+		return none
+	}
 	for r := range y {
 		y[r] = (y[r] - my) / sy
 	}
-	var beta mat.VecDense
-	if err := beta.SolveVec(design, mat.NewVecDense(len(y), y)); err != nil {
-		return Sensitivity{Explained: math.NaN()}
+	var beta, fitted mat.VecDense
+	if err := f.qr.SolveVecTo(&beta, false, mat.NewVecDense(len(y), y)); err != nil {
+		return none
 	}
-	var fit mat.VecDense
-	fit.MulVec(design, &beta)
+	fitted.MulVec(f.design, &beta)
 	ssRes := 0.0
 	for r := range y {
-		d := y[r] - fit.AtVec(r)
+		d := y[r] - fitted.AtVec(r)
 		ssRes += d * d
 	}
 	out := Sensitivity{Explained: 1 - ssRes/float64(len(y)-1)}
 	total := 0.0
-	for c := range cols {
+	for c := range f.cols {
 		total += beta.AtVec(c) * beta.AtVec(c)
 	}
-	for c, j := range cols {
+	for c, j := range f.cols {
 		if sh := beta.AtVec(c) * beta.AtVec(c) / total; sh >= minShare {
 			out.Shares = append(out.Shares, Share{Input: s.plan.inputs[j].Name, Share: sh})
 		}
