@@ -27,8 +27,8 @@ var ChartOrder = []struct {
 
 // mineralsStep chooses the minerals the charts of a sample show: those of
 // ChartOrder whose components were reported, then any other mineral past
-// its limit (or supersaturated without one, when not slow to form) in the
-// sample or anywhere on its sweeps, in table order.
+// its limit in the sample or anywhere on its sweeps, in table order, unless
+// a mineral of the same formula is already charted.
 func mineralsStep(p *Sample, s Settings) error {
 	prof := s.LimitProfile()
 	var out []string
@@ -58,9 +58,18 @@ func mineralsStep(p *Sample, s Settings) error {
 			}
 		}
 	}
+	formulas := map[string]bool{}
+	for _, m := range p.Result.Minerals {
+		if slices.Contains(out, m.Name) {
+			formulas[m.Formula] = true
+		}
+	}
 	for _, m := range p.Result.Minerals { // table order
-		if past[m.Name] && !slices.Contains(out, m.Name) {
+		// A polymorph of a charted mineral (aragonite beside calcite) is
+		// left to the table: it has the same limit and a lower SI.
+		if past[m.Name] && !slices.Contains(out, m.Name) && !formulas[m.Formula] {
 			out = append(out, m.Name)
+			formulas[m.Formula] = true
 		}
 	}
 	p.Minerals = out

@@ -48,9 +48,10 @@ type panel struct {
 	// SI draws the equilibrium line (SI = 0) and the near-equilibrium band
 	// (±0.2) and sizes the axis to show them.
 	SI bool
-	// Limit is the inhibitor limit (an SI) drawn as a dashed line; NaN for
-	// none.
+	// Limit is the limit on the SI drawn as a dashed line; NaN for none.
 	Limit float64
+	// YName is the quantity of the y axis ("SI", "pH").
+	YName string
 }
 
 // xMark is a vertical line across every panel, e.g. the highest cycles.
@@ -73,9 +74,9 @@ type panelChart struct {
 
 // Layout of panel charts, px.
 const (
-	panelRowHeight = 215
-	panelTitleGap  = 34
-	panelBottomGap = 50
+	panelRowHeight = 185
+	panelTitleGap  = 30
+	panelBottomGap = 48
 )
 
 func panelColumns(n int) int {
@@ -84,8 +85,10 @@ func panelColumns(n int) int {
 		return max(n, 1)
 	case n == 4:
 		return 2
+	case n <= 6:
+		return 3
 	}
-	return 3
+	return 4
 }
 
 // height is the chart height in px.
@@ -176,6 +179,7 @@ func (pc panelChart) option() (map[string]any, error) {
 		}
 		yAxes = append(yAxes, opts.YAxis{
 			Type: "value", GridIndex: i, Min: lo, Max: hi, MinInterval: step, MaxInterval: step,
+			Name: p.YName, NameLocation: "middle", NameGap: 38,
 			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)},
 			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: "#e6e9ee"}},
 		})
@@ -238,10 +242,9 @@ func (pc panelChart) markLines(p panel) []any {
 		})
 		if finite(p.Limit) {
 			out = append(out, map[string]any{
-				"yAxis": dec(p.Limit, 2), "name": "inhibitor limit " + signed(p.Limit, 2),
+				"yAxis": dec(p.Limit, 2), "name": "limit " + signed(p.Limit, 2),
 				"lineStyle": map[string]any{"color": colVermilion, "type": "dashed", "width": 1.5},
-				"label": map[string]any{"formatter": "{b}", "position": "insideEndTop", "color": "#9a3600",
-					"fontSize": 10},
+				"label":     map[string]any{"show": false},
 			})
 		}
 	}
@@ -252,7 +255,7 @@ func (pc panelChart) markLines(p panel) []any {
 		out = append(out, map[string]any{
 			"xAxis": m.X, "name": m.Label,
 			"lineStyle": map[string]any{"color": "#3b4a5a", "type": "dotted", "width": 1.5},
-			"label":     map[string]any{"formatter": "{b}", "position": "insideEndTop", "fontSize": 10, "color": "#3b4a5a"},
+			"label":     map[string]any{"show": false},
 		})
 	}
 	return out
@@ -308,13 +311,6 @@ func richTooltip(trigger string) map[string]any {
 
 func pct(x float64) string { return fmt.Sprintf("%.1f%%", x) }
 
-// heatCell is one cell of the limiting-mineral map.
-type heatCell struct {
-	X, Y  int // column and row index
-	Band  saturation.Band
-	Label string // mineral and SI
-}
-
 // staticSVG returns the options every chart of the report shares: drawn as SVG
 // (sharp in print), full width at the given height in pixels, no animation.
 func staticSVG(id string, height int) []charts.GlobalOpts {
@@ -323,63 +319,6 @@ func staticSVG(id string, height int) []charts.GlobalOpts {
 			Height: fmt.Sprintf("%dpx", height)}),
 		charts.WithAnimation(false),
 	}
-}
-
-// heatChart is a temperature × cycles map of the limiting mineral: each
-// cell coloured by its risk band and labelled with the mineral and its SI.
-type heatChart struct {
-	ID           string
-	XName, YName string
-	XLabels      []string // columns
-	YLabels      []string // rows, bottom to top
-	Cells        []heatCell
-}
-
-func (hc heatChart) height() int { return len(hc.YLabels)*36 + 120 }
-
-func (hc heatChart) option() map[string]any {
-	hm := charts.NewHeatMap()
-	hm.SetGlobalOptions(staticSVG(hc.ID, hc.height())...)
-	hm.SetGlobalOptions(
-		charts.WithLegendOpts(opts.Legend{Show: opts.Bool(false)}),
-		charts.WithGridOpts(opts.Grid{Left: "80px", Right: "24px", Top: "16px", Bottom: "96px"}),
-		charts.WithXAxisOpts(opts.XAxis{Type: "category", Data: hc.XLabels, Name: hc.XName, NameLocation: "middle",
-			NameGap: 28, SplitArea: &opts.SplitArea{Show: opts.Bool(false)}}),
-		charts.WithYAxisOpts(opts.YAxis{Type: "category", Data: hc.YLabels, Name: hc.YName, NameLocation: "middle",
-			NameGap: 52, AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)}}),
-	)
-	hm.SetXAxis(hc.XLabels)
-	data := make([]map[string]any, 0, len(hc.Cells))
-	for _, c := range hc.Cells {
-		st := bandStyleOf(c.Band)
-		data = append(data, map[string]any{
-			"name": c.Label, "value": []int{c.X, c.Y, int(c.Band)},
-			"label": map[string]any{"color": st.Text},
-		})
-	}
-	hm.AddSeries("limiting mineral", nil, charts.WithSeriesOpts(func(s *charts.SingleSeries) {
-		s.Data = data
-		s.Label = &opts.Label{Show: opts.Bool(true), Formatter: "{b}", FontSize: 10, LineHeight: 12}
-		s.ItemStyle = &opts.ItemStyle{BorderColor: "#ffffff", BorderWidth: 1}
-	}))
-	hm.Validate()
-	option := hm.JSON()
-	var pieces []map[string]any
-	for _, b := range allBands {
-		if b == saturation.SlowToForm {
-			continue // never limiting
-		}
-		pieces = append(pieces, map[string]any{"value": int(b), "label": b.String(), "color": bandStyleOf(b).Fill})
-	}
-	option["visualMap"] = []map[string]any{{
-		"type": "piecewise", "dimension": 2, "pieces": pieces, "orient": "horizontal",
-		"left": "center", "bottom": 4, "itemWidth": 14, "itemHeight": 12, "selectedMode": false,
-		"textStyle": map[string]any{"fontSize": 11},
-	}}
-	option["tooltip"] = map[string]any{"show": true, "trigger": "item", "renderMode": "richText",
-		"confine": true, "formatter": "{b}"}
-	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
-	return option
 }
 
 // ionBar is one series of the composition chart: an ion (or group) and

@@ -3,7 +3,6 @@ package reports
 import (
 	"fmt"
 	"math"
-	"strconv"
 	"strings"
 	"time"
 
@@ -22,7 +21,7 @@ const maxPanelTitle = 30
 func (b *builder) siPanels(pts []saturation.Point, minerals []saturation.MineralResult, xDecimals int) []panel {
 	var out []panel
 	for _, m := range minerals {
-		p := panel{Title: mineralLabel(m.Name) + " · " + m.Formula, Color: colBlue, SI: true, Limit: math.NaN()}
+		p := panel{Title: mineralLabel(m.Name) + " · " + m.Formula, Color: colBlue, SI: true, Limit: math.NaN(), YName: "SI"}
 		if m.Formula == "" || len([]rune(p.Title)) > maxPanelTitle {
 			p.Title = mineralLabel(m.Name) // the formula is in the table of saturation indices
 		}
@@ -43,7 +42,7 @@ func (b *builder) siPanels(pts []saturation.Point, minerals []saturation.Mineral
 }
 
 func phPanel(pts []saturation.Point, xDecimals int) panel {
-	p := panel{Title: "pH", Color: colPurple, Limit: math.NaN()}
+	p := panel{Title: "pH", Color: colPurple, Limit: math.NaN(), YName: "pH"}
 	for _, pt := range pts {
 		if pt.Result != nil && finite(pt.Result.PH) {
 			p.Points = append(p.Points, xy{dec(pt.X, xDecimals), dec(pt.Result.PH, 2)})
@@ -151,23 +150,31 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 	}
 
 	tStep := tickStep((sw.hot - sw.bulk) / 6)
-	temp := panelChart{ID: id("temperature"), XName: "°C", XMin: math.Floor(sw.bulk/tStep) * tStep,
+	temp := panelChart{ID: id("temperature"), XName: "Temperature, °C", XMin: math.Floor(sw.bulk/tStep) * tStep,
 		XMax:   math.Ceil(sw.hot/tStep) * tStep,
 		Panels: b.siPanels(sw.temp, sw.minerals, 1)}
-	cyc := panelChart{ID: id("cycles"), XName: "cycles of concentration", XMin: 1, XMax: dec(sw.maxCycles, 2),
+	cyc := panelChart{ID: id("cycles"), XName: "Cycles of concentration", XMin: 1, XMax: dec(sw.maxCycles, 2),
 		Panels: b.siPanels(sw.cycles, sw.minerals, 2)}
-	if c := s.CyclesAnswer; c != nil && finite(c.MaxCycles) && c.Limiting != "" {
+	cycKey := ""
+	if c := s.CyclesAnswer; c != nil && finite(c.MaxCycles) && c.Limiting != "" && sw.fromSearch {
 		cyc.Marks = append(cyc.Marks, xMark{dec(c.MaxCycles, 2), "highest cycles " + num(c.MaxCycles, 1)})
+		cycKey = fmt.Sprintf(" Dotted vertical line: the highest cycles, %s.", num(c.MaxCycles, 1))
 	}
-	dose := panelChart{ID: id("dose"), XName: "mg/L " + b.reagent.Formula, XMin: 0, XMax: math.NaN(),
+	dose := panelChart{ID: id("dose"), XName: "Dose of " + b.reagent.Formula + ", mg/L of product", XMin: 0, XMax: math.NaN(),
 		Panels: append([]panel{phPanel(sw.dose, 1)}, b.siPanels(sw.dose, sw.minerals, 1)...)}
+	doseKey := ""
 	if d := s.DoseAnswer; d != nil && d.Reached && d.Dose > 0 &&
 		d.Reagent.Name == b.reagent.Name && d.Dose <= sw.maxDose {
 		dose.Marks = append(dose.Marks, xMark{dec(d.Dose, 1), "to " + targetLabel(d.Target)})
+		doseKey = fmt.Sprintf(" Dotted vertical line: the dose to %s, %s mg/L.", targetLabel(d.Target), num(d.Dose, 1))
 	}
 	strength := b.o.Plan.Strength
 	if strength == 0 {
 		strength = b.reagent.Strength
+	}
+	caution := ""
+	if d := s.DoseAnswer; d == nil || !(d.Reached && d.Dose > 0) {
+		caution = b.reagentCaution(b.reagent) // else said once, at the dose answer
 	}
 	specs := []struct {
 		pc             panelChart
@@ -177,15 +184,14 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 	}{
 		{temp, "Saturation index against temperature",
 			fmt.Sprintf("The water heated in a closed system from the sample temperature (%s °C) to %s °C, "+
-				"the tube-wall (skin) temperature of a heat exchanger. Solid line: equilibrium (SI = 0); "+
-				"blue band: near equilibrium (±0.2); dashed line: the SI an inhibitor usually holds.",
-				num(sw.bulk, 1), num(sw.hot, 1)), "", sw.temp},
-		{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced), "", sw.cycles},
-		{dose, fmt.Sprintf("pH and saturation index against %s dose", b.reagent.Label),
-			fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. Rising lines are side effects "+
-				"of what the reagent adds (sulfate from sulfuric acid raises the sulfate minerals).",
-				num(strength, 0), b.reagent.Label, b.reagent.Formula, num(sw.maxDose, 0), forced),
-			sentence(b.reagent.Caution), sw.dose},
+				"the tube-wall (skin) temperature of a heat exchanger. %s", num(sw.bulk, 1), num(sw.hot, 1), b.siKey()),
+			"", sw.temp},
+		{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced) + " " + b.siKey() + cycKey, "", sw.cycles},
+		{dose, fmt.Sprintf("pH and saturation index against the dose of %s", b.reagent.Label),
+			fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. %s %s%s",
+				num(strength, 0), b.reagent.Label, b.reagent.Formula, num(sw.maxDose, 0), forced,
+				addsWords(b.reagent), b.siKey(), doseKey),
+			caution, sw.dose},
 	}
 	for _, sp := range specs {
 		view, note, ok := b.addPanelChart(sp.pc, sp.title, sp.caption, sp.caution, sp.pts)
@@ -196,65 +202,50 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 			views = append(views, view)
 		}
 	}
-	const mapTitle = "Limiting mineral by temperature and cycles"
-	if hc, caption, ok := b.heatOf(id("map"), sw); ok {
-		if err := b.addChart(hc.ID, hc.option()); err != nil {
-			notes = append(notes, fmt.Sprintf("%s: not drawn (%v).", mapTitle, err))
-		} else {
-			views = append(views, chartView{ID: hc.ID, Title: mapTitle, Caption: caption, Height: hc.height()})
+	if view, note, ok := b.windowView(id("window"), s); ok {
+		views = append(views, view)
+		if note != "" {
+			notes = append(notes, note)
 		}
+	} else if note != "" {
+		notes = append(notes, note)
 	}
 	return views, notes
 }
 
-// heatOf builds the limiting-mineral map of a sample.
-func (b *builder) heatOf(id string, sw *sweepSet) (heatChart, string, bool) {
-	hc := heatChart{ID: id, XName: "°C", YName: "cycles"}
-	for _, t := range sw.gridT {
-		hc.XLabels = append(hc.XLabels, num(t, 0))
+// siKey explains the lines of the SI panels.
+func (b *builder) siKey() string {
+	limit := "the limit with an antiscalant"
+	if !b.inhibitorWords() {
+		limit = "the limit of " + profileWords(b.profile.Name)
 	}
-	for _, c := range sw.gridC {
-		hc.YLabels = append(hc.YLabels, strconv.FormatFloat(sig(c, 2), 'f', -1, 64))
-	}
-	type cell struct {
-		m    saturation.MineralResult
-		band saturation.Band
-	}
-	cells := make([]*cell, len(sw.grid))
-	names := map[string]bool{}
-	for i, p := range sw.grid {
-		if p.Result == nil {
-			continue
+	return fmt.Sprintf("Solid line: equilibrium (SI = 0); blue band: near equilibrium (±%s); dashed line: %s.",
+		num(saturation.NearEquilibriumSI, 1), limit)
+}
+
+// addsWords says what a reagent adds to the water besides changing its pH
+// and alkalinity, from its stoichiometry (water.Reagent.Adds).
+func addsWords(r water.Reagent) string {
+	var parts []string
+	for _, c := range []struct {
+		comp  water.Component
+		words string
+	}{
+		{water.S, "sulfate, which raises gypsum, anhydrite, barite and celestite"},
+		{water.Cl, "chloride, which makes the water more corrosive"},
+		{water.P, "phosphate, which raises the calcium phosphates"},
+		{water.Ca, "calcium, which raises the calcium minerals"},
+		{water.Na, "sodium"},
+		{water.C, "inorganic carbon"},
+	} {
+		if r.Adds[c.comp] > 0 {
+			parts = append(parts, c.words)
 		}
-		if m, ok := b.limiting(p.Result); ok {
-			cells[i] = &cell{m.MineralResult, m.Band}
-			names[m.Name] = true
-		}
 	}
-	if len(names) == 0 {
-		return hc, "", false
+	if len(parts) == 0 {
+		return fmt.Sprintf("%s adds nothing that forms scale of its own.", upperFirst(r.Label))
 	}
-	one := len(names) == 1
-	var only string
-	for i, c := range cells {
-		if c == nil {
-			continue
-		}
-		label := signed(c.m.SI, 2)
-		if !one {
-			label = mineralLabel(c.m.Name) + "\n" + label
-		} else {
-			only = mineralLabel(c.m.Name)
-		}
-		hc.Cells = append(hc.Cells, heatCell{X: i % len(sw.gridT), Y: i / len(sw.gridT), Band: c.band, Label: label})
-	}
-	caption := "Each cell names the mineral with the highest risk at that temperature and concentration, " +
-		"with its saturation index, coloured by risk band."
-	if one {
-		caption = fmt.Sprintf("The limiting mineral is %s everywhere on this grid; each cell gives its saturation "+
-			"index, coloured by risk band.", only)
-	}
-	return hc, caption, true
+	return fmt.Sprintf("%s also adds %s; a rising line is such a side effect.", upperFirst(r.Label), joinWords(parts))
 }
 
 // ionGroup is one bar segment of the composition chart.

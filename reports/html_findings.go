@@ -31,7 +31,7 @@ func (b *builder) facts(s *plan.Sample, sw *sweepSet) []fact {
 	}
 	out = append(out, balanceFact(s))
 	out = append(out, fact{Label: "pH · ionic strength",
-		Value: num(r.PH, 2) + " · " + sigText(r.IonicStrength, 3) + " mol/kg", Note: r.Activity.String() + " activities"})
+		Value: num(r.PH, 2) + " · " + sigText(r.IonicStrength, 3) + " mol/kg", Note: "activity coefficients: " + activityWords(r.Activity)})
 	return out
 }
 
@@ -68,7 +68,7 @@ func (b *builder) findings(s *plan.Sample, sw *sweepSet) []string {
 	out = append(out, b.passFindings(s, "temperature", s.Temperature, func(x float64) string { return num(x, 0) + " °C" },
 		fmt.Sprintf("between %s and %s °C", num(sw.bulk, 0), num(sw.hot, 0)))...)
 	if c := s.CyclesAnswer; c != nil {
-		out = append(out, cyclesFinding(c, b.ruleName()))
+		out = append(out, cyclesFinding(c, b.o.Plan.Rule()))
 	} else {
 		out = append(out, b.passFindings(s, "cycles", s.Cycles, func(x float64) string { return num(x, 1) + " cycles" },
 			fmt.Sprintf("when concentrated up to %s cycles", num(sw.maxCycles, 0)))...)
@@ -113,47 +113,39 @@ func upperFirst(s string) string {
 	return strings.ToUpper(s[:1]) + s[1:]
 }
 
-func cyclesFinding(c *saturation.CyclesResult, rule string) string {
-	where := "limits of the " + c.Profile.Name + " profile"
-	if rule != "" {
-		where += ", carbonate " + rule
-	}
+func cyclesFinding(c *saturation.CyclesResult, rule saturation.CarbonateRule) string {
+	where := profileWords(c.Profile.Name) + ", with " + ruleWords(rule)
 	switch {
 	case len(c.Exceeded) > 0:
 		var names []string
 		for _, q := range c.Exceeded {
 			names = append(names, quantityLabel(q))
 		}
-		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past the %s for %s: it needs treatment before it is concentrated.",
-			where, strings.Join(names, ", "))
+		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past %s for %s (judged %s): "+
+			"it needs treatment before it is concentrated.", profileWords(c.Profile.Name), strings.Join(names, ", "),
+			"at the pH a tower settles at, "+ruleWords(rule))
 	case c.Limiting == "":
-		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).", num(c.MaxCycles, 1), where)
+		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).",
+			num(c.MaxCycles, 1), where)
 	}
-	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s (%s).", num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
+	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s (%s).",
+		num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
 }
 
 // cyclesCaption describes the cycles chart.
 func (b *builder) cyclesCaption(s *plan.Sample, sw *sweepSet, forced string) string {
-	if sw.fromSearch && s.CyclesAnswer != nil {
-		rule := b.ruleName()
-		if rule == "" {
-			rule = "as searched"
-		}
-		c := s.CyclesAnswer
-		mark := fmt.Sprintf(" No limit of the %s profile is reached in this range.", c.Profile.Name)
+	rule := ruleWords(b.o.Plan.Rule())
+	text := fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s; carbonate system: %s.",
+		num(sw.maxCycles, 1), forced, rule)
+	if c := s.CyclesAnswer; sw.fromSearch && c != nil {
 		if c.Limiting != "" {
-			mark = fmt.Sprintf(" The dotted line marks the highest cycles under the %s limits, set by %s.",
-				c.Profile.Name, quantityLabel(c.Limiting))
+			text += fmt.Sprintf(" The dotted line marks the highest cycles under %s, set by %s.",
+				profileWords(c.Profile.Name), quantityLabel(c.Limiting))
+		} else {
+			text += fmt.Sprintf(" No limit of %s is reached in this range.", profileWords(c.Profile.Name))
 		}
-		return fmt.Sprintf("The points of the highest-cycles search: every dissolved constituent concentrated 1 to %s "+
-			"times%s, carbonate system %s.%s", num(sw.maxCycles, 1), forced, rule, mark)
 	}
-	if r := b.o.Plan.CyclesRule; r != nil && r.Name != "closed" {
-		return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate rule %s.",
-			num(sw.maxCycles, 1), forced, r.Name)
-	}
-	return fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s, carbonate system closed "+
-		"(no CO₂ exchanged with air; a tower open to air loses CO₂ and runs at a higher pH).", num(sw.maxCycles, 1), forced)
+	return text
 }
 
 // doseFinding reads the dose sweep: pH from start to end, and the
@@ -164,15 +156,15 @@ func (b *builder) doseFinding(s *plan.Sample, sw *sweepSet) []string {
 	if d := s.DoseAnswer; d != nil {
 		switch {
 		case d.Reached && d.Dose > 0:
-			out = append(out, fmt.Sprintf("The dose to %s is %s mg/L of %s (%s %%): pH %s → %s.",
-				d.Target, num(d.Dose, 1), d.Reagent.Label, num(d.Strength, 0), num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
+			out = append(out, fmt.Sprintf("To bring the water to %s takes %s mg/L of %s %% %s: pH %s → %s.",
+				targetLabel(d.Target), num(d.Dose, 1), num(d.Strength, 0), d.Reagent.Label,
+				num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
 		case d.Reached:
-			out = append(out, fmt.Sprintf("No %s is needed for %s: the water is already there.", d.Reagent.Label, d.Target))
+			out = append(out, noDoseSentence(d))
 		case len(d.Warnings) > 0:
-			w := d.Warnings[0]
-			out = append(out, "Dose to "+d.Target.String()+": "+sentence(w))
+			out = append(out, "Dose to "+targetLabel(d.Target)+": "+sentence(clientText(d.Warnings[0])))
 		default:
-			out = append(out, fmt.Sprintf("%s does not reach %s.", d.Reagent.Label, d.Target))
+			out = append(out, fmt.Sprintf("No dose of %s reaches %s.", d.Reagent.Label, targetLabel(d.Target)))
 		}
 	}
 	// Then what the dose chart shows across its range, said as a range.
@@ -205,7 +197,7 @@ func (b *builder) doseFinding(s *plan.Sample, sw *sweepSet) []string {
 			rises = append(rises, change)
 		}
 	}
-	line := fmt.Sprintf("Across the dose chart (0 to %s mg/L of %s, the end of the chart, not a recommendation) pH goes from %s to %s",
+	line := fmt.Sprintf("Across the dose chart (0 to %s mg/L of %s; the end of the chart, not a recommendation) pH goes from %s to %s",
 		num(lastX, 0), b.reagent.Label, num(first.PH, 2), num(last.PH, 2))
 	if len(falls) > 0 {
 		line += "; SI falls for " + strings.Join(falls, ", ")
@@ -222,8 +214,13 @@ func (b *builder) qualityFinding(s *plan.Sample) []string {
 		return []string{"The ion balance cannot be checked: no ions were reported."}
 	}
 	if q.BalanceAcceptable {
-		return []string{fmt.Sprintf("The ion balance (%s %%) meets the criterion %s.", signed(q.BalancePercent, 2), q.BalanceLimit)}
+		return []string{fmt.Sprintf("The ion balance (%s %%) meets the usual criterion (%s).", signed(q.BalancePercent, 2), q.BalanceLimit)}
 	}
-	return []string{fmt.Sprintf("The ion balance (%s %%) fails the criterion %s: an analyte may be missing or in "+
+	return []string{fmt.Sprintf("The ion balance (%s %%) fails the usual criterion (%s): an analyte may be missing or in "+
 		"error, and every index above is less certain.", signed(q.BalancePercent, 2), q.BalanceLimit)}
+}
+
+// noDoseSentence says that a water needs no dose to reach its target.
+func noDoseSentence(d *saturation.DoseResult) string {
+	return fmt.Sprintf("No %s is needed: the water is already at %s or better.", d.Reagent.Label, targetLabel(d.Target))
 }

@@ -10,7 +10,7 @@ import (
 	"strings"
 	"testing"
 
-	"scalerisk/saturation"
+	"scalerisk/plan"
 )
 
 // TestChartLabelsEscaped: text that reaches a chart (a panel title, a heat
@@ -25,8 +25,10 @@ func TestChartLabelsEscaped(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	hc := heatChart{ID: "h", XLabels: []string{evil}, YLabels: []string{evil},
-		Cells: []heatCell{{X: 0, Y: 0, Band: saturation.BeyondReach, Label: evil}}}
+	hc := windowChart{ID: "h", labels: map[string]string{"calcite": evil}, w: &plan.Window{
+		Temperatures: []float64{20, 40}, Cycles: []float64{1, 2}, Margin: []float64{1, 0.5, 0.2, -0.1},
+		Nearest: []string{evil, "calcite", "calcite", "calcite"}, Present: [2]float64{20, 1},
+		Curves: []plan.Curve{{Mineral: "calcite", Limit: 1.8, Points: [][2]float64{{20, 1.5}, {40, 1.2}}}}}}
 	cc := compositionChart{ID: "c", Ions: []ionBar{{Name: evil, Cation: true, MeqPerL: 2, Color: colBlue}}}
 	for id, opt := range map[string]map[string]any{"t": option, "h": hc.option(), "c": cc.option()} {
 		raw, err := chartJSON(id, opt)

@@ -85,9 +85,9 @@ func (b *builder) bandMeaning(bd saturation.Band) string {
 	}
 	if !b.inhibitorWords() {
 		if bd == saturation.WithinReach {
-			return "Supersaturated, but within the limit of the " + b.profile.Name + " limits used in this report."
+			return "Supersaturated, but within its limit (" + profileWords(b.profile.Name) + ")."
 		}
-		return "Past the limit of the " + b.profile.Name + " limits used in this report: expect deposits."
+		return "Past its limit (" + profileWords(b.profile.Name) + "): expect deposits."
 	}
 	if bd == saturation.WithinReach {
 		return "Supersaturated, within what an antiscalant programme usually holds in solution."
@@ -151,4 +151,19 @@ func mineralLabel(name string) string {
 		return parts[1] + " " + parts[0]
 	}
 	return strings.Join(parts, " ")
+}
+
+// limitingNote says how the limiting mineral is chosen.
+func (b *builder) limitingNote() string {
+	return "The limiting mineral is the scale former most at risk under " + profileWords(b.profile.Name) +
+		": a mineral past its limit first (the furthest past), then the supersaturated ones by saturation index."
+}
+
+// limitsNote says where the limits of the tables come from.
+func (b *builder) limitsNote() string {
+	if b.inhibitorWords() {
+		return "Limits: the saturation index an antiscalant programme usually holds (common practice); the limits " +
+			"of the product actually used govern."
+	}
+	return "Limits: " + profileWords(b.profile.Name) + "; the methods give their basis."
 }

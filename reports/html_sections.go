@@ -1,7 +1,6 @@
 package reports
 
 import (
-	"cmp"
 	"fmt"
 	"slices"
 	"strconv"
@@ -31,7 +30,7 @@ func sampleError(s *plan.Sample) string {
 // sectionHead starts the section of a sample: its number, anchor, name,
 // and where it comes from.
 func sectionHead(index int, s *plan.Sample) sampleView {
-	sv := sampleView{Anchor: fmt.Sprintf("sample-%d", index+1), Name: s.Name}
+	sv := sampleView{Anchor: fmt.Sprintf("sample-%d", index+1), Name: s.Name, Date: s.Input.Date}
 	var where []string
 	if w := sampleWhere(s); w != "" {
 		where = append(where, w)
@@ -58,6 +57,9 @@ func (b *builder) sectionTail(sv *sampleView, s *plan.Sample, r *saturation.Resu
 		sv.Warnings = append(sv.Warnings, r.Warnings...)
 	}
 	sv.Warnings = append(sv.Warnings, s.Warnings...)
+	for i, w := range sv.Warnings {
+		sv.Warnings[i] = clientText(w)
+	}
 }
 
 // failedSection builds the section of a sample whose equilibrium could not
@@ -86,36 +88,21 @@ func (b *builder) section(index int, s *plan.Sample) sampleView {
 	sv := sectionHead(index, s)
 
 	sv.Equilibrium = []kv{
-		{"Evaluated at", num(r.Temperature, 1) + " °C"},
-		{"pH at equilibrium", num(r.PH, 2)},
-		{"Ionic strength", sigText(r.IonicStrength, 3) + " mol/kg"},
-		{"Activity model", r.Activity.String()},
-		{"Total alkalinity", sigText(1000*r.Alkalinity, 4) + " meq/kg"},
-		{"Inorganic carbon", sigText(1000*r.Carbon, 4) + " mmol/kg"},
+		{"Evaluated at", num(r.Temperature, 1), "°C"},
+		{"pH at equilibrium", num(r.PH, 2), ""},
+		{"Ionic strength", sigText(r.IonicStrength, 3), "mol/kg"},
+		{"Activity coefficients", activityWords(r.Activity), ""},
+		{"Total alkalinity", sigText(1000*r.Alkalinity, 4), "meq/kg"},
+		{"Inorganic carbon", sigText(1000*r.Carbon, 4), "mmol/kg"},
 	}
 	if finite(r.LogPCO2) {
-		sv.Equilibrium = append(sv.Equilibrium, kv{"log pCO₂ (atm)", num(r.LogPCO2, 2)})
+		sv.Equilibrium = append(sv.Equilibrium, kv{"log pCO₂", num(r.LogPCO2, 2), "log atm"})
 	}
-	sv.Equilibrium = append(sv.Equilibrium, kv{"Charge balance of the speciation", num(r.ChargeBalance, 2) + " %"})
+	sv.Equilibrium = append(sv.Equilibrium, kv{"Charge balance of the speciation", num(r.ChargeBalance, 2), "%"})
 
-	ms := slices.Clone(r.Minerals)
-	slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
-	for _, m := range ms {
-		if !finite(m.SI) {
-			continue
-		}
-		limit := "—"
-		if reach, ok := saturation.InhibitorReach(m.Name); ok {
-			switch {
-			case reach.Slow:
-				limit = "slow to form"
-			case finite(reach.MaxSI):
-				limit = signed(reach.MaxSI, 2)
-			}
-		}
-		sv.Minerals = append(sv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
-			SI: signed(m.SI, 2), Limit: limit, LogK: num(m.LogK, 3), Band: b.band(m.Name, m.SI), key: m.Name})
-	}
+	sv.Minerals, sv.MineralsOmitted = b.mineralRows(s)
+	sv.OmittedNote = fmt.Sprintf("The other %s of the thermodynamic table %s undersaturated or slow to form; "+
+		"all are listed in the methods.", plural(sv.MineralsOmitted, "mineral", "minerals"), isAre(sv.MineralsOmitted))
 
 	sw := b.sweeps(s)
 	sv.Facts = b.facts(s, sw)
@@ -135,33 +122,33 @@ func (b *builder) section(index int, s *plan.Sample) sampleView {
 func entered(a water.Analysis, r *saturation.Result) ([]kv, []componentRow) {
 	fields := []kv{}
 	if a.Date != "" {
-		fields = append(fields, kv{"Date", a.Date})
+		fields = append(fields, kv{"Date", a.Date, ""})
 	}
 	fields = append(fields,
-		kv{"Temperature", num(a.Temperature, 1) + " °C"},
-		kv{"pH (as measured)", num(a.PH, 2)},
-		kv{"pH measured at", num(a.PHTemperature, 1) + " °C"},
+		kv{"Temperature", num(a.Temperature, 1), "°C"},
+		kv{"pH (as measured)", num(a.PH, 2), ""},
+		kv{"pH measured at", num(a.PHTemperature, 1), "°C"},
 	)
 	if finite(a.MeasuredTDS) {
-		fields = append(fields, kv{"TDS (measured)", num(a.MeasuredTDS, 0) + " mg/L"})
+		fields = append(fields, kv{"TDS (measured)", num(a.MeasuredTDS, 0), "mg/L"})
 	}
 	if finite(a.MeasuredConductivity) {
-		fields = append(fields, kv{"Conductivity (measured)", num(a.MeasuredConductivity, 0) + " µS/cm at 25 °C"})
+		fields = append(fields, kv{"Conductivity (measured)", num(a.MeasuredConductivity, 0), "µS/cm at 25 °C"})
 	}
-	density := num(a.Density, 4) + " kg/L"
+	density := "Density"
 	if a.DensityEstimated {
 		density += " (estimated from TDS)"
 	}
-	fields = append(fields, kv{"Density", density}, kv{"Water per litre", num(a.WaterPerLitre, 4) + " kg"})
+	fields = append(fields, kv{density, num(a.Density, 4), "kg/L"}, kv{"Water per litre", num(a.WaterPerLitre, 4), "kg"})
 	if finite(a.Pressure) && a.Pressure != 1 {
-		fields = append(fields, kv{"Pressure", num(a.Pressure, 2) + " atm"})
+		fields = append(fields, kv{"Pressure", num(a.Pressure, 2), "atm"})
 	}
 	for _, m := range a.Entered {
 		raw := strconv.FormatFloat(m.Value, 'g', -1, 64)
 		if m.BelowDetection {
 			raw = "<" + strconv.FormatFloat(m.Limit, 'g', -1, 64) + " (used: " + raw + ")"
 		}
-		fields = append(fields, kv{m.Column, raw + " " + m.Unit.Text})
+		fields = append(fields, kv{m.Column, raw, m.Unit.Text})
 	}
 	var rows []componentRow
 	for _, c := range water.Components() {
@@ -248,24 +235,58 @@ func qualityRows(q water.Quality, r *saturation.Result) ([]qualityRow, []kv, []s
 		rows = append(rows, row)
 	}
 	sums := []kv{
-		{"Cation sum", sigText(q.Cations, 4) + " meq/L"},
-		{"Anion sum", sigText(q.Anions, 4) + " meq/L"},
-		{"TDS calculated", num(q.TDSCalculated, 0) + " mg/L"},
+		{"Cation sum", sigText(q.Cations, 4), "meq/L"},
+		{"Anion sum", sigText(q.Anions, 4), "meq/L"},
+		{"TDS calculated", num(q.TDSCalculated, 0), "mg/L"},
 	}
 	if finite(q.TDSMeasured) {
-		sums = append(sums, kv{"TDS measured", num(q.TDSMeasured, 0) + " mg/L"})
+		sums = append(sums, kv{"TDS measured", num(q.TDSMeasured, 0), "mg/L"})
 	}
-	sums = append(sums, kv{"Conductivity calculated", num(q.ConductivityCalculated, 0) + " µS/cm"})
+	sums = append(sums, kv{"Conductivity calculated", num(q.ConductivityCalculated, 0), "µS/cm"})
 	if finite(q.ConductivityMeasured) {
-		sums = append(sums, kv{"Conductivity measured", num(q.ConductivityMeasured, 0) + " µS/cm"})
+		sums = append(sums, kv{"Conductivity measured", num(q.ConductivityMeasured, 0), "µS/cm"})
 	}
-	sums = append(sums, kv{"Ionic strength, from the composition", sigText(q.IonicStrength, 3) + " mol/kg"},
-		kv{"Ionic strength, 2.5×10⁻⁵ × TDS (Langelier)", sigText(q.IonicStrengthFromTDS, 3) + " mol/kg"})
+	sums = append(sums, kv{"Ionic strength, from the composition", sigText(q.IonicStrength, 3), "mol/kg"},
+		kv{"Ionic strength, 2.5×10⁻⁵ × TDS (Langelier)", sigText(q.IonicStrengthFromTDS, 3), "mol/kg"})
 	if finite(q.IonicStrengthFromConductivity) {
-		sums = append(sums, kv{"Ionic strength, 1.6×10⁻⁵ × EC (Russell)", sigText(q.IonicStrengthFromConductivity, 3) + " mol/kg"})
+		sums = append(sums, kv{"Ionic strength, 1.6×10⁻⁵ × EC (Russell)", sigText(q.IonicStrengthFromConductivity, 3), "mol/kg"})
 	}
 	if r != nil {
-		sums = append(sums, kv{"Ionic strength, from the speciation (ion pairs formed)", sigText(r.IonicStrength, 3) + " mol/kg"})
+		sums = append(sums, kv{"Ionic strength, from the speciation (ion pairs formed)", sigText(r.IonicStrength, 3), "mol/kg"})
 	}
 	return rows, sums, q.Flags
+}
+
+// mineralRows is the table a client acts on: the minerals the charts show
+// (in their fixed order) and any other scale former at or above near
+// equilibrium, with the SI, the limit, the margin left to it and the band;
+// omitted counts the other minerals of the table (in the JSON output and
+// the methods).
+func (b *builder) mineralRows(s *plan.Sample) (rows []mineralRow, omitted int) {
+	names := slices.Clone(s.Minerals)
+	for _, rk := range s.Ranking {
+		if !slices.Contains(names, rk.Name) {
+			names = append(names, rk.Name)
+		}
+	}
+	for _, name := range names {
+		m, ok := mineralOf(s.Result, name)
+		if !ok || !finite(m.SI) {
+			continue
+		}
+		row := mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula, SI: signed(m.SI, 2), Limit: "—", key: m.Name,
+			Margin: "—", Band: b.band(m.Name, m.SI)}
+		if limit, slow, ok := b.limitOf(m.Name); ok {
+			row.Limit, row.Margin = signed(limit, 2), signed(limit-m.SI, 2)
+		} else if slow {
+			row.Limit = "slow to form"
+		}
+		rows = append(rows, row)
+	}
+	for _, m := range s.Result.Minerals {
+		if finite(m.SI) && !slices.Contains(names, m.Name) {
+			omitted++
+		}
+	}
+	return rows, omitted
 }

@@ -31,7 +31,7 @@ func sweepNotes(sw *sweepSet, have []string) []string {
 				key := digits.ReplaceAllString(w, "#")
 				if !seen[w] && !seen[key] {
 					seen[w], seen[key] = true, true
-					out = append(out, "On the charts, from the first point it applies to: "+w)
+					out = append(out, "On the charts, from the first point it applies to: "+clientText(w))
 				}
 			}
 		}

@@ -57,7 +57,9 @@ th { font-weight: 650; color: var(--muted); font-size: 13px; border-bottom: 1.5p
 td.nowrap { white-space: nowrap; }
 td.n, th.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 tbody tr:nth-child(even) td { background: #f8f9fb; }
-table.kv td:first-child { color: var(--muted); width: 42%; }
+table.kv td:first-child { color: var(--muted); width: 46%; }
+table.kv td.v { font-variant-numeric: tabular-nums; }
+table.kv td.u { color: var(--muted); width: 1%; white-space: nowrap; }
 .cols { display: grid; grid-template-columns: 1fr 1fr; gap: 0 28px; }
 .chip { display: inline-block; padding: 1px 9px; border-radius: 10px; font-size: 12.5px; font-weight: 600; white-space: nowrap; border: 1px solid rgba(0,0,0,.12); }
 .b-under { background: #0072B2; color: #fff; } .b-near { background: #56B4E9; color: #000; }
@@ -99,11 +101,25 @@ a { color: var(--accent); }
   details > pre { display: none; }
   .facts { grid-template-columns: 1fr 1fr; }
   .chip { white-space: normal; }
-  figure { max-width: 100%; overflow: hidden; }
+  figure { max-width: 100%; overflow: hidden; margin: 8px 0; padding: 6px 8px; }
+  figure h4 { font-size: 10pt; }
+  figure figcaption { font-size: 8.5pt; }
+  /* The analysis, data quality and notes of a sample: small print, two columns. */
+  .appendix { columns: 2; column-gap: 8mm; font-size: 8pt; }
+  .appendix table, .appendix p, .appendix ul { font-size: 8pt; }
+  .appendix h3 { font-size: 10pt; margin-top: 6px; break-after: avoid; }
+  .appendix .cols { display: block; }
+  .appendix th, .appendix td { padding: 1px 4px; }
+  .appendix table.kv td:first-child { width: auto; }
+  table { font-size: 9pt; }
+  th, td { padding: 2px 6px; }
+  h2 { font-size: 15pt; } h3 { font-size: 11.5pt; margin: 10px 0 4px; }
+  .facts { margin: 6px 0 2px; gap: 6px; }
+  .fact { padding: 4px 8px; } .fact .value { font-size: 11pt; }
   /* The charts scale to the page: the script gives each SVG a viewBox. */
   .chart { height: auto !important; }
   .chart > div { width: 100% !important; height: auto !important; }
-  .chart svg { position: static !important; width: 100% !important; height: auto !important; }
+  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 66mm; }
 }
 </style>
 </head>
@@ -123,7 +139,7 @@ a { color: var(--accent); }
 <nav class="toc" aria-label="Contents"><strong>Contents</strong>
 <ol>
   <li><a href="#summary">Summary</a></li>
-  {{- range .Sections}}<li><a href="#{{.Anchor}}">{{.Name}}</a></li>{{end}}
+  {{- range .Sections}}<li><a href="#{{.Anchor}}">{{.Name}}</a>{{if .Date}} <span class="muted">· {{.Date}}</span>{{end}}</li>{{end}}
   {{- if .Time}}<li><a href="#over-time">Indices over time</a></li>{{end}}
   <li><a href="#methods">Methods and data sources</a></li>
   <li><a href="#cautions">Cautions</a></li>
@@ -135,7 +151,7 @@ a { color: var(--accent); }
 <div class="caution"><strong>Advisory.</strong> {{.Caution}}</div>
 {{- if .Overview}}
 <table class="overview">
-<thead><tr><th>Sample</th><th>Date</th><th class="n">T °C</th><th class="n">pH</th><th class="n">I mol/kg</th><th>Ion balance</th><th>Limiting mineral</th><th class="n">SI</th><th>Risk band</th></tr></thead>
+<thead><tr><th>Sample</th><th>Date</th><th class="n">Temperature, °C</th><th class="n">pH</th><th class="n">Ionic strength, mol/kg</th><th>Ion balance</th><th>Limiting mineral</th><th class="n">SI</th><th>Risk band</th></tr></thead>
 <tbody>
 {{- range .Overview}}
 <tr><td>{{if .Anchor}}<a href="#{{.Anchor}}">{{.Name}}</a>{{else}}{{.Name}}{{end}}</td><td class="nowrap">{{.Date}}</td><td class="n">{{.Temperature}}</td><td class="n">{{.PH}}</td><td class="n">{{.IonicStrength}}</td><td><span class="chip {{.Balance.Class}}">{{.Balance.Text}}</span></td><td>{{.Limiting}}</td><td class="n">{{.LimitingSI}}</td><td>{{if .Band.Text}}<span class="chip {{.Band.Class}}">{{.Band.Text}}</span>{{end}}</td></tr>
@@ -143,7 +159,7 @@ a { color: var(--accent); }
 </tbody>
 </table>
 {{- end}}
-{{- if .NotDetailed}}<p class="muted small">{{.NotDetailed}} further samples appear in this table only (the report details the first {{len .Sections}}).</p>{{end}}
+<p class="muted small">{{.DetailNote}}</p>
 {{- if .Failed}}
 <h3>Samples not computed</h3>
 <table><thead><tr><th>Sample</th><th>Where</th><th>Why</th></tr></thead><tbody>
@@ -154,7 +170,7 @@ a { color: var(--accent); }
 <table class="legend-bands"><tbody>
 {{- range .Bands}}<tr><td><span class="chip {{.Chip.Class}}">{{.Chip.Text}}</span></td><td>{{.Meaning}}</td></tr>{{end}}
 </tbody></table>
-<p class="muted small">The limiting mineral is the scale former in the highest risk band; within a band, the one furthest past its inhibitor limit (or, below it, with the highest saturation index). SI = log<sub>10</sub>(IAP/K<sub>sp</sub>).</p>
+<p class="muted small">{{.LimitingNote}} SI = log<sub>10</sub>(IAP/K<sub>sp</sub>), the saturation index.</p>
 </section>
 
 {{- range .Sections}}
@@ -171,17 +187,14 @@ a { color: var(--accent); }
 <ul class="findings">{{range .Findings}}<li>{{.}}</li>{{end}}</ul>
 {{- if not .SpeciationError}}
 
-<h3>Saturation indices at equilibrium</h3>
-<div class="cols">
-<table class="kv"><tbody>{{range .Equilibrium}}<tr><td>{{.Key}}</td><td>{{.Value}}</td></tr>{{end}}</tbody></table>
-<p class="muted small">The full speciation of the sample (free ions, ion pairs and complexes) solved at the temperature shown. The inhibitor limit is the saturation index an antiscalant programme usually holds; a product's own limits govern.</p>
-</div>
+<h3>What to act on</h3>
 <table class="minerals">
-<thead><tr><th>Mineral</th><th>Formula</th><th class="n">SI</th>{{if .Intervals}}<th class="n">{{.IntervalHead}}</th><th class="n">P(SI &gt; 0)</th>{{end}}<th>Risk band</th><th class="n">Inhibitor limit</th><th class="n">log K</th></tr></thead>
+<thead><tr><th>Mineral</th><th>Formula</th><th class="n">SI</th>{{if .Intervals}}<th class="n">{{.IntervalHead}}</th><th class="n">P(SI &gt; 0)</th>{{end}}<th class="n">Limit (SI)</th><th class="n">Margin to the limit</th><th>Risk band</th></tr></thead>
 <tbody>
-{{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td>{{if .Interval}}<td class="n">{{.Interval}}</td><td class="n">{{.PAbove}}</td>{{end}}<td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td><td class="n">{{.Limit}}</td><td class="n">{{.LogK}}</td></tr>{{end}}
+{{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td>{{if .Interval}}<td class="n">{{.Interval}}</td><td class="n">{{.PAbove}}</td>{{end}}<td class="n">{{.Limit}}</td><td class="n">{{.Margin}}</td><td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td></tr>{{end}}
 </tbody>
 </table>
+<p class="muted small">{{$.LimitsNote}} The margin is the limit minus the saturation index: the room left before the limit (negative: past it).{{if .MineralsOmitted}} {{.OmittedNote}}{{end}}</p>
 {{- end}}
 
 {{- range .ChartNotes}}<p class="muted small">{{.}}</p>{{end}}
@@ -205,14 +218,18 @@ a { color: var(--accent); }
 <table><thead><tr><th>Mineral</th><th class="n">SI</th><th class="n">alone, mg/L</th><th class="n">together, mg/L</th>{{if .ScaleKg}}<th class="n">alone, kg/day</th><th class="n">together, kg/day</th>{{end}}</tr></thead><tbody>
 {{- range .Scale}}<tr><td>{{.Mineral}}</td><td class="n">{{.SI}}</td><td class="n">{{.Alone}}</td><td class="n">{{.Together}}</td>{{if .AloneKg}}<td class="n">{{.AloneKg}}</td><td class="n">{{.TogetherKg}}</td>{{end}}</tr>{{end}}
 </tbody></table>
-<p class="muted small">mg of mineral per litre of water that would deposit for the water to reach equilibrium with it: each mineral alone, and all of them together (they compete for the same ions). Closed system, at {{.IndicesAt}}.{{if not .ScaleKg}} Give --flow to see kg/day.{{end}}</p>
+<p class="muted small">Milligrams of mineral per litre of water that would deposit for the water to reach equilibrium with it: each mineral alone, and all of them together (they compete for the same ions). Closed system, at {{.IndicesAt}}.{{if not .ScaleKg}} Amounts per day need the flow of the water, which was not given.{{end}}</p>
 {{- end}}
 
 {{- with .Treatment}}
 <h3>Treatment</h3>
+{{- if .NoDose}}
+<h4>Dose to target</h4>
+<p>{{.NoDose}}</p>
+{{- end}}
 {{- if .Dose}}
 <h4>Dose to target</h4>
-<table class="kv"><tbody>{{range .Dose}}<tr><td>{{.Key}}</td><td>{{.Value}}</td></tr>{{end}}</tbody></table>
+<table class="kv"><tbody>{{range .Dose}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .Effects}}
 <p class="small">Saturation indices that rise with the dose (side effects):</p>
 <table><thead><tr><th>Mineral</th><th class="n">Before</th><th class="n">After</th><th>Risk band after</th></tr></thead><tbody>
@@ -224,7 +241,7 @@ a { color: var(--accent); }
 {{- end}}
 {{- if .Cycles}}
 <h4>Highest cycles of concentration</h4>
-<table class="kv"><tbody>{{range .Cycles}}<tr><td>{{.Key}}</td><td>{{.Value}}</td></tr>{{end}}</tbody></table>
+<table class="kv"><tbody>{{range .Cycles}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .CycleNotes}}<ul class="small">{{range .CycleNotes}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{- end}}
 {{- range .Blends}}
@@ -245,9 +262,10 @@ a { color: var(--accent); }
 {{- if .Notes}}<ul class="small">{{range .Notes}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{- end}}
 
+<div class="appendix">
 <h3>The analysis as entered and as used</h3>
 <div class="cols">
-<table class="kv"><tbody>{{range .Entered}}<tr><td>{{.Key}}</td><td>{{.Value}}</td></tr>{{end}}</tbody></table>
+<table class="kv"><tbody>{{range .Entered}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 <div>
 <p class="muted small">Concentrations are read in the units of the file and converted to mol/kg of water with the density and the mass of water per litre shown; mg/L are given back as the ion (SO₄, NO₃, SiO₂, PO₄). Inorganic carbon is not measured: pH and alkalinity fix it.</p>
 {{- if .BelowDetection}}
@@ -266,20 +284,25 @@ a { color: var(--accent); }
 <thead><tr><th>Check</th><th>Applies</th><th class="n">Value</th><th class="n">Criterion</th><th>Verdict</th></tr></thead>
 <tbody>{{range .Quality}}<tr><td>{{.Check}}</td><td class="muted">{{.Applies}}</td><td class="n">{{.Value}}</td><td class="n">{{.Limit}}</td><td><span class="chip {{.Verdict.Class}}">{{.Verdict.Text}}</span></td></tr>{{end}}</tbody>
 </table>
-<table class="kv"><tbody>{{range .QualitySums}}<tr><td>{{.Key}}</td><td>{{.Value}}</td></tr>{{end}}</tbody></table>
+<table class="kv"><tbody>{{range .QualitySums}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+{{- if .Equilibrium}}
+<h4>The equilibrium solved</h4>
+<table class="kv"><tbody>{{range .Equilibrium}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+{{- end}}
 {{- if .QualityFlags}}<ul class="small">{{range .QualityFlags}}<li>{{.}}</li>{{end}}</ul>{{end}}
 
 {{- if .Warnings}}
 <h3>Notes and warnings</h3>
 <ul class="small">{{range .Warnings}}<li>{{.}}</li>{{end}}</ul>
 {{- end}}
+</div>
 </section>
 {{- end}}
 
 {{- if .Time}}
 <section id="over-time" class="break">
 <h2><span class="num">{{add (len .Sections) 2}}</span>Indices over time</h2>
-<p class="muted small">Waters sampled on two or more dates, each sample at its own temperature. Solid line: equilibrium; blue band: near equilibrium; dashed line: inhibitor limit.</p>
+<p class="muted small">Waters sampled on two or more dates, each sample at its own temperature. {{.TimeKey}}</p>
 {{- range .Time}}
 <figure>
 <h4>{{.Title}}</h4>
@@ -309,16 +332,17 @@ a { color: var(--accent); }
 <p class="muted small">Source: {{.CriteriaSource}}. Ionic-strength estimates: Langelier (1936), I ≈ 2.5×10⁻⁵ × TDS; Russell (1976), I ≈ 1.6×10⁻⁵ × EC.</p>
 {{- if .Sources}}
 <h3>Minerals and their equilibrium constants</h3>
+<p class="muted small">Every mineral of the samples, with its solubility constant at 25 °C (log K) and the temperature range of its constant.</p>
 <table class="small"><thead><tr><th>Mineral</th><th>Formula</th><th class="n">log K 25 °C</th><th class="n">Range</th><th>Source</th></tr></thead><tbody>
 {{- range .Sources}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.LogK}}</td><td class="n">{{.Range}}</td><td>{{.Source}}</td></tr>{{end}}
 </tbody></table>
 {{- end}}
 {{- if .Reach}}
-<h3>Inhibitor limits behind the risk bands</h3>
+<h3>Limits behind the risk bands</h3>
 <table class="small"><thead><tr><th>Mineral</th><th class="n">Limit (SI)</th><th>Basis</th></tr></thead><tbody>
 {{- range .Reach}}<tr><td>{{.Name}}</td><td class="n">{{.Limit}}</td><td>{{.Source}}</td></tr>{{end}}
 </tbody></table>
-<p class="muted small">These are rules of thumb of the trade; the limits of the antiscalant actually used govern.</p>
+<p class="muted small">{{.ReachNote}}</p>
 {{- end}}
 {{- end}}
 </section>
@@ -330,7 +354,7 @@ a { color: var(--accent); }
 </section>
 </main>
 <footer>
-<p>Computed and written by scalerisk. {{.ChartCount}} charts. Charts drawn with Apache ECharts {{.EChartsVersion}}, inlined in this file under the Apache License 2.0; the file needs no network connection.</p>
+<p>Computed and written by scalerisk. {{.ChartCountText}}. Charts drawn with Apache ECharts {{.EChartsVersion}}, inlined in this file under the Apache License 2.0; the file needs no network connection.</p>
 <details><summary>Third-party software: notice and licence</summary>
 <pre>{{.EChartsNotice}}</pre>
 <pre>{{.EChartsLicense}}</pre>

@@ -124,7 +124,7 @@ func TestHTMLDemo(t *testing.T) {
 
 	// Cautions: the advisory note, SM 2330, acid handling, Legionella.
 	for _, want := range []string{html.EscapeString(reports.Caution), "guides, not absolutes (Standard Methods 2330)",
-		"Always add acid to water", "hypochlorite", "Legionella", "ASHRAE 188", "licensed practice"} {
+		"always add acid to water", "hypochlorite", "Legionella", "ASHRAE 188", "licensed practice"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("page lacks the caution text %q", want)
 		}
@@ -135,10 +135,10 @@ func TestHTMLDemo(t *testing.T) {
 			t.Errorf("no section for %q", a.Name)
 		}
 	}
-	for _, want := range []string{"Saturation indices at equilibrium", "The analysis as entered and as used",
+	for _, want := range []string{"What to act on", "Margin to the limit", "The analysis as entered and as used",
 		"Data quality", "Methods and data sources", "Plummer &amp; Busenberg (1982)", "Nordstrom et al. (1990)",
 		"Classic indices at", "half the limit", "Mn &lt;0.01 mg/L taken as 0.005", "beyond inhibitor reach",
-		"Limiting mineral by temperature and cycles", "Composition, meq/L", "anion sum 3.0–10.0 meq/L"} {
+		"Operating window: margin to the nearest limit", "Composition, meq/L", "anion sum 3.0–10.0 meq/L"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("page lacks %q", want)
 		}
@@ -157,7 +157,7 @@ func TestHTMLDemo(t *testing.T) {
 	if len(ids) != 5*len(as) {
 		t.Errorf("%d chart containers, want 5 per sample (%d): %v", len(ids), 5*len(as), ids)
 	}
-	for _, kind := range []string{"temperature", "cycles", "dose", "map", "composition"} {
+	for _, kind := range []string{"temperature", "cycles", "dose", "window", "composition"} {
 		if !slices.Contains(ids, "s1-"+kind) {
 			t.Errorf("no chart s1-%s", kind)
 		}
@@ -267,8 +267,8 @@ func TestHTMLTreatment(t *testing.T) {
 	}
 	page := buf.String()
 	_ = cycles
-	for _, want := range []string{"Dose to target", "LSI +0.50", "sulfuric acid (H2SO4), 93 % product",
-		"side effects", "Highest cycles of concentration</h4>", "no-inhibitor", "The blend could not be computed: an invented failure.",
+	for _, want := range []string{"Dose to target", "LSI +0.50", "sulfuric acid (H2SO4), product of 93 %",
+		"side effects", "Highest cycles of concentration</h4>", "the usual limits without an antiscalant", "The blend could not be computed: an invented failure.",
 		`"name":"to LSI +0.50"`, "highest cycles"} {
 		if !strings.Contains(page, want) {
 			t.Errorf("page lacks %q", want)
@@ -277,7 +277,7 @@ func TestHTMLTreatment(t *testing.T) {
 	if !dose.Reached {
 		t.Fatalf("dose to LSI 0.5 not reached for the tower water: %v", dose.Warnings)
 	}
-	if want := fmt.Sprintf("%.1f mg/L of product", dose.Dose); !strings.Contains(page, want) {
+	if want := fmt.Sprintf(`%.1f</td><td class="u">mg/L of product`, dose.Dose); !strings.Contains(page, want) {
 		t.Errorf("page lacks the dose %q", want)
 	}
 }
@@ -419,7 +419,7 @@ func TestHTMLSweepFailures(t *testing.T) {
 	if len(opts) != len(ids) {
 		t.Errorf("%d chart options for %d containers", len(opts), len(ids))
 	}
-	for _, id := range []string{"s1-temperature", "s2-dose", "s4-map", "s3-composition"} {
+	for _, id := range []string{"s1-temperature", "s2-dose", "s4-window", "s3-composition"} {
 		if !slices.Contains(ids, id) {
 			t.Errorf("no chart %s", id)
 		}
@@ -470,9 +470,9 @@ func TestHTMLDetailLimit(t *testing.T) {
 	as := demoAssessments(t)
 	page := render(t, reports.Report{Samples: reports.ReportSamples(as), Options: reports.HTMLOptions{Detail: 1}})
 	if n := len(chartIDs(page)); n != 5 {
-		t.Errorf("%d charts with Detail 1, want the 5 of the first sample", n)
+		t.Errorf("%d charts with Detail 1, want the 5 of the sample of highest risk", n)
 	}
-	if !strings.Contains(page, "2 further samples appear in this table only") {
+	if !strings.Contains(page, "A full section follows for the sample of highest risk; the other 2 samples are in this table only.") {
 		t.Error("the summary does not say that two samples are not detailed")
 	}
 	page = render(t, reports.Report{Samples: reports.ReportSamples(as), Options: reports.HTMLOptions{Detail: -1}})

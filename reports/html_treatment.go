@@ -15,6 +15,7 @@ import (
 // treatmentView is the treatment part of a sample's section.
 type treatmentView struct {
 	Dose         []kv
+	NoDose       string // the sentence when no dose is needed
 	Effects      []effectRow
 	DoseWarnings []string
 	Caution      string
@@ -81,6 +82,15 @@ func quantityLabel(q string) string {
 		return "Langelier index"
 	case "mg_per_l":
 		return arg + " (mg/L)"
+	case "product":
+		var parts []string
+		for _, f := range strings.Split(arg, "*") {
+			parts = append(parts, strings.ReplaceAll(f, "_", " "))
+		}
+		if arg == "Mg_as_CaCO3*SiO2" {
+			return "magnesium silicate (Mg as CaCO₃ × SiO₂, mg/L)"
+		}
+		return "the product " + strings.Join(parts, " × ") + " (mg/L)"
 	}
 	return q
 }
@@ -95,22 +105,25 @@ func (b *builder) treatment(s *plan.Sample) *treatmentView {
 		}
 	}
 	if d := s.DoseAnswer; d != nil {
-		reached := "yes"
-		if !d.Reached {
-			reached = "no (see the note below)"
-		}
 		tv.Dose = []kv{
-			{"Reagent", d.Reagent.Label + " (" + d.Reagent.Formula + "), " + num(d.Strength, 0) + " % product"},
-			{"Target", targetLabel(d.Target)},
-			{"Dose", num(d.Dose, 1) + " mg/L of product"},
-			{"Target reached", reached},
+			{"Reagent", d.Reagent.Label + " (" + d.Reagent.Formula + "), product of " + num(d.Strength, 0) + " %", ""},
+			{"Target", targetLabel(d.Target), ""},
 		}
-		if s.Flow > 0 && d.Reached {
-			tv.Dose = append(tv.Dose, kv{"At the flow given", sigText(saturation.KgPerDay(d.Dose, s.Flow), 3) + " kg/day of product"})
+		switch {
+		case d.Reached && d.Dose > 0:
+			tv.Dose = append(tv.Dose, kv{"Dose", num(d.Dose, 1), "mg/L of product"})
+		case d.Reached:
+			tv.NoDose = noDoseSentence(d)
+			tv.Dose = nil
+		default:
+			tv.Dose = append(tv.Dose, kv{"Dose", "not reached: see the note below", ""})
 		}
-		if d.Before.Result != nil && d.After.Result != nil {
-			tv.Dose = append(tv.Dose, kv{"pH", num(d.Before.Result.PH, 2) + " → " + num(d.After.Result.PH, 2)},
-				kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2)})
+		if tv.Dose != nil && s.Flow > 0 && d.Reached {
+			tv.Dose = append(tv.Dose, kv{"At the flow given", sigText(saturation.KgPerDay(d.Dose, s.Flow), 3), "kg/day of product"})
+		}
+		if tv.Dose != nil && d.Before.Result != nil && d.After.Result != nil {
+			tv.Dose = append(tv.Dose, kv{"pH", num(d.Before.Result.PH, 2) + " → " + num(d.After.Result.PH, 2), ""},
+				kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2), ""})
 			for _, m := range d.After.Result.Minerals {
 				before, ok := d.Before.Result.SI(m.Name)
 				if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !b.scaleFormer(m.Name, m.SI) {
@@ -122,13 +135,13 @@ func (b *builder) treatment(s *plan.Sample) *treatmentView {
 		}
 		// The reagent's caution is shown in its own box below.
 		for _, w := range d.Warnings {
-			if c := strings.TrimSpace(d.Reagent.Caution); c == "" || !strings.Contains(w, c) {
-				tv.DoseWarnings = append(tv.DoseWarnings, w)
+			// The side effects are in the table above, in the report's bands.
+			if c := strings.TrimSpace(d.Reagent.Caution); (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") {
+				tv.DoseWarnings = append(tv.DoseWarnings, clientText(w))
 			}
 		}
-		tv.Caution = DoseCaution
-		if c := strings.TrimSpace(d.Reagent.Caution); c != "" {
-			tv.Caution = sentence(c)
+		if tv.Dose != nil {
+			tv.Caution = b.reagentCaution(d.Reagent)
 		}
 	}
 	if c := s.CyclesAnswer; c != nil {
@@ -144,14 +157,15 @@ func (b *builder) treatment(s *plan.Sample) *treatmentView {
 			limiting = quantityLabel(c.Limiting)
 		}
 		tv.Cycles = []kv{
-			{"Highest cycles of concentration (this water as makeup)", highest},
-			{"Limited by", limiting},
-			{"Limit profile", c.Profile.Name},
+			{"Highest cycles of concentration (this water as makeup)", highest, ""},
+			{"Limited by", limiting, ""},
+			{"Limits used", profileWords(c.Profile.Name), ""},
+			{"Carbonate system", ruleWords(b.o.Plan.Rule()), ""},
 		}
-		tv.Cycles = append(tv.Cycles, kv{"Carbonate system", b.ruleName()})
 		for _, l := range c.Profile.Limits {
 			if l.Quantity == c.Limiting {
-				tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s ≤ %g (%s)", quantityLabel(l.Quantity), l.Max, l.Source)})
+				tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s at most %g", quantityLabel(l.Quantity), l.Max), ""},
+					kv{"Basis of the limit", provenanceWords(l.Source), ""})
 			}
 		}
 		if len(exceeded) > 0 {
@@ -162,7 +176,7 @@ func (b *builder) treatment(s *plan.Sample) *treatmentView {
 			if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {
 				continue // said above in words
 			}
-			tv.CycleNotes = append(tv.CycleNotes, w)
+			tv.CycleNotes = append(tv.CycleNotes, clientText(w))
 		}
 	}
 	for _, bl := range s.Blends {

@@ -30,6 +30,11 @@ type pageView struct {
 	Caution             string
 	Cautions            []string
 	ChartCount          int
+	ChartCountText      string
+	DetailNote          string
+	LimitingNote        string
+	LimitsNote          string
+	TimeKey             string
 	ChartOptions        template.JS
 	EChartsJS           template.JS
 	EChartsVersion      string
@@ -58,7 +63,7 @@ type failedRow struct {
 	index                      int
 }
 
-type kv struct{ Key, Value string }
+type kv struct{ Key, Value, Unit string }
 
 type fact struct {
 	Label, Value string
@@ -67,8 +72,8 @@ type fact struct {
 }
 
 type mineralRow struct {
-	Name, Formula, SI, Limit, LogK string
-	Band                           chip
+	Name, Formula, SI, Limit, Margin string
+	Band                             chip
 	// Interval and PAbove are the range of the SI over the draws of the
 	// analysis and the probability of SI > 0 (html_uncertainty.go); empty
 	// without draws. key is the mineral's name in the results.
@@ -92,10 +97,13 @@ type qualityRow struct {
 type sampleView struct {
 	Number              int
 	Anchor, Name, Where string
+	Date                string
 	Facts               []fact
 	Findings            []string
 	Equilibrium         []kv
 	Minerals            []mineralRow
+	MineralsOmitted     int
+	OmittedNote         string
 	Charts              []chartView
 	ChartNotes          []string
 	Indices             []indexRow
@@ -132,6 +140,7 @@ type methodsView struct {
 	CriteriaSource                         string
 	Sources                                []sourceRow
 	Reach                                  []reachRow
+	ReachNote                              string
 }
 
 type sourceRow struct{ Name, Formula, LogK, Range, Source string }

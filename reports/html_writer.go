@@ -5,6 +5,7 @@ import (
 	"cmp"
 	"encoding/json"
 	"errors"
+	"fmt"
 	"html/template"
 	"io"
 	"maps"
@@ -91,7 +92,7 @@ func (hw *HTMLWriter) Add(p *plan.Sample) error {
 		hw.fails = append(hw.fails, row)
 		return nil
 	}
-	b.models[p.Result.Activity.String()] = true
+	b.models[activityWords(p.Result.Activity)] = true
 	for _, m := range p.Result.Minerals {
 		if _, ok := b.shown[m.Name]; !ok {
 			b.shown[m.Name] = m
@@ -181,6 +182,11 @@ func (hw *HTMLWriter) view() (*pageView, error) {
 	v.Time, v.TimeNote = b.timeCharts(hw.times)
 	v.Methods = b.methods()
 	v.ChartCount = len(options)
+	v.ChartCountText = plural(len(options), "chart", "charts")
+	v.DetailNote = detailNote(len(v.Overview), len(v.Overview)-v.NotDetailed)
+	v.LimitingNote = b.limitingNote()
+	v.LimitsNote = b.limitsNote()
+	v.TimeKey = b.siKey()
 	opt, err := json.Marshal(options) // keys sorted: deterministic
 	if err != nil {
 		return nil, err
@@ -216,4 +222,24 @@ func (r riskKey) compare(o riskKey) int {
 		return c
 	}
 	return cmp.Compare(r.score, o.score)
+}
+
+// detailNote says which samples have a full section: all of them, or the
+// shown of highest risk.
+func detailNote(computed, shown int) string {
+	switch {
+	case computed == 0:
+		return "No sample could be computed."
+	case shown == computed:
+		return "The table lists the samples worst first; each has a full section below."
+	case shown == 0:
+		return "The table lists the samples worst first; no sample has a full section in this report."
+	}
+	if shown == 1 {
+		return fmt.Sprintf("The table lists the samples worst first. A full section follows for the sample of highest risk; "+
+			"the other %s %s in this table only.", plural(computed-shown, "sample", "samples"), isAre(computed-shown))
+	}
+	return fmt.Sprintf("The table lists the samples worst first. Full sections follow for the %s of highest risk; "+
+		"the other %s %s in this table only.", plural(shown, "sample", "samples"), plural(computed-shown, "sample", "samples"),
+		isAre(computed-shown))
 }
