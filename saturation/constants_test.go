@@ -136,3 +136,33 @@ func TestGypsumAnhydriteHeatCapacity(t *testing.T) {
 		}
 	}
 }
+
+// TestGypsumAnhydriteWaterActivity: gypsum = anhydrite + 2 H2O is at
+// equilibrium where log K(gypsum) − log K(anhydrite) = 2·log a_w, whatever
+// the solution (the solids are pure). Hardie (1967) Am. Mineral. 52:171
+// measured it reversibly in Na2SO4 and H2SO4 solutions of known water
+// activity [READ, abstract]: a_w 0.960 at 55 °C, 0.845 at 39 °C, 0.770 at
+// 23 °C (and 58 ± 2 °C extrapolated to pure water). This checks the two
+// log K functions of data/thermo.csv alone, with no activity model; the
+// tolerance is the ± 4 °C Blount & Dickson (1973) give for the same
+// equilibrium in NaCl brines.
+func TestGypsumAnhydriteWaterActivity(t *testing.T) {
+	const tolTransition = 4.0 // °C
+	gyp, _ := DefaultTable().Entry("gypsum")
+	anh, _ := DefaultTable().Entry("anhydrite")
+	for _, h := range []struct{ aw, tc float64 }{{0.960, 55}, {0.845, 39}, {0.770, 23}} {
+		target := 2 * math.Log10(h.aw)
+		lo, hi := 0.0, 100.0 // log K(gypsum) − log K(anhydrite) rises with T
+		for range 50 {
+			mid := (lo + hi) / 2
+			if gyp.LogK(mid)-anh.LogK(mid) < target {
+				lo = mid
+			} else {
+				hi = mid
+			}
+		}
+		if got := (lo + hi) / 2; math.Abs(got-h.tc) > tolTransition {
+			t.Errorf("gypsum–anhydrite equilibrium at a_w %.3f = %.1f °C, want %g ± %g °C (Hardie 1967)", h.aw, got, h.tc, tolTransition)
+		}
+	}
+}
