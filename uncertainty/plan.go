@@ -134,8 +134,8 @@ type plan struct {
 
 // newPlan lists the uncertain inputs of a: every measured component total,
 // the alkalinity, the pH and the temperature, with the uncertainty of the
-// sample, of the run (s.Relative) or of the table, in that order of
-// precedence. A component reported only below its detection limit is drawn
+// sample (a.Uncertainty), of the run (s.Relative, concentrations and
+// alkalinity only) or of the table, in that order of precedence. A component reported only below its detection limit is drawn
 // uniformly between 0 and the limit.
 func newPlan(a water.Analysis, s Settings) (plan, error) {
 	t := s.Table
@@ -143,12 +143,39 @@ func newPlan(a water.Analysis, s Settings) (plan, error) {
 		t = Defaults()
 	}
 	p := plan{central: a}
-	relative := func(in Input, ok bool) (Input, Origin, bool) {
+	// own returns the sample's own figure for key, in the unit of in.
+	own := func(in Input, key string) (Input, bool) {
+		u, ok := a.Uncertainty[key]
+		if ok {
+			in.U, in.Source = u, "the sample's own figure"
+		}
+		return in, ok
+	}
+	relative := func(in Input, key string, ok bool) (Input, Origin, bool) {
+		if mine, found := own(in, key); found {
+			mine.Unit = Relative
+			return mine, FromSample, true
+		}
 		if s.Relative > 0 {
 			in.U, in.Unit, in.Source = s.Relative, Relative, "whole-run figure"
 			return in, FromRun, true
 		}
 		return in, FromTable, ok
+	}
+	absolute := func(i int, key string, value float64) {
+		in, ok := t.row(i)
+		if !ok || math.IsNaN(value) {
+			return
+		}
+		origin := FromTable
+		if mine, found := own(in, key); found {
+			in, origin = mine, FromSample
+		}
+		to := toPH
+		if in.Unit == Celsius {
+			to = toTemperature
+		}
+		p.inputs = append(p.inputs, planned{Used: Used{Input: in, Distribution: Normal, Origin: origin, Value: value}, to: to})
 	}
 	for c := range water.NumComponents {
 		if !a.Measured[c] || (c == water.C && !a.CarbonKnown) {
@@ -164,7 +191,7 @@ func newPlan(a water.Analysis, s Settings) (plan, error) {
 		if in.Name == "" {
 			in.Name = c.String()
 		}
-		in, origin, ok := relative(in, in.U > 0)
+		in, origin, ok := relative(in, c.String(), in.U > 0)
 		if !ok || !(a.Totals[c] > 0) {
 			continue
 		}
@@ -173,20 +200,14 @@ func newPlan(a water.Analysis, s Settings) (plan, error) {
 	}
 	if alk := a.Alkalinity; alk > 0 {
 		in, ok := t.row(t.alk)
-		if in, origin, ok := relative(in, ok); ok {
+		if in, origin, ok := relative(in, "alkalinity", ok); ok {
 			in.Name = "alkalinity"
 			p.inputs = append(p.inputs, planned{Used: Used{Input: in, Distribution: LogNormal,
 				Origin: origin, Value: alk}, to: toAlkalinity})
 		}
 	}
-	if in, ok := t.row(t.ph); ok && !math.IsNaN(a.PH) {
-		p.inputs = append(p.inputs, planned{Used: Used{Input: in, Distribution: Normal,
-			Origin: FromTable, Value: a.PH}, to: toPH})
-	}
-	if in, ok := t.row(t.temp); ok {
-		p.inputs = append(p.inputs, planned{Used: Used{Input: in, Distribution: Normal,
-			Origin: FromTable, Value: a.Temperature}, to: toTemperature})
-	}
+	absolute(t.ph, "pH", a.PH)
+	absolute(t.temp, "temperature", a.Temperature)
 	if len(p.inputs) == 0 {
 		return plan{}, fmt.Errorf("%s: no input carries an uncertainty", a.Name)
 	}

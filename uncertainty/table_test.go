@@ -114,3 +114,31 @@ func TestBalanceRule(t *testing.T) {
 		}
 	}
 }
+
+// TestSampleFigures: a sample's own figure wins over the whole-run one,
+// which wins over the table; pH and temperature take the sample's figure
+// too.
+func TestSampleFigures(t *testing.T) {
+	a := readOne(t, "name,temperature [C],pH,pH ±,Ca [mg/L],Ca ± [%],Mg [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\n"+
+		"w,25,7.5,0.2,100,8,20,150,100\n")
+	p, err := newPlan(a, Settings{Relative: 0.07})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]struct {
+		u      float64
+		origin Origin
+	}{
+		"Ca": {0.08, FromSample}, "Mg": {0.07, FromRun}, "Cl": {0.07, FromRun}, "alkalinity": {0.07, FromRun},
+		"pH": {0.2, FromSample}, "temperature": {0.5, FromTable},
+	}
+	for _, in := range p.inputs {
+		w, ok := want[in.Name]
+		if !ok || math.Abs(in.U-w.u) > 1e-12 || in.Origin != w.origin {
+			t.Errorf("%s: u %g from %s, want %g from %s", in.Name, in.U, in.Origin, w.u, w.origin)
+		}
+	}
+	if len(p.inputs) != len(want) {
+		t.Errorf("%d inputs, want %d", len(p.inputs), len(want))
+	}
+}

@@ -66,6 +66,9 @@ type Analysis struct {
 	// Entered holds the analyte values as the laboratory reported them, in
 	// their own units, in file order (nil for a transformed water).
 	Entered []Measurement
+	// Uncertainty holds the sample's own standard uncertainties as read
+	// (see Sample.Uncertainty); nil when the file gives none. Read only.
+	Uncertainty map[string]float64
 
 	// BelowDetection lists the analytes reported below their detection limit
 	// with the substitute value used, e.g. "Ba <0.01 mg/L taken as 0.005".
@@ -140,6 +143,10 @@ type Sample struct {
 	Conductivity  float64 // µS/cm
 	Pressure      float64 // atm
 	Measurements  []Measurement
+	// Uncertainty holds the sample's own standard uncertainties, keyed by
+	// UncertaintyKey ("Ca", "S", "alkalinity") or "pH" and "temperature":
+	// a fraction of the value, pH units or °C; nil when none are given.
+	Uncertainty map[string]float64
 }
 
 // NewSample returns a Sample with every physical field unset (NaN).
@@ -163,7 +170,7 @@ func (s Sample) Analysis(forms *AnalyteTable) (Analysis, error) {
 // analysis is Analysis with entered as the analysis's Entered (a copy of
 // s.Measurements, or the reader's own slice, which it hands over).
 func (s Sample) analysis(forms *AnalyteTable, entered []Measurement) (Analysis, error) {
-	a := Analysis{Name: s.Name, Date: s.Date, Role: s.Role, System: s.System, Temperature: s.Temperature, PH: s.PH,
+	a := Analysis{Name: s.Name, Date: s.Date, Uncertainty: s.Uncertainty, Role: s.Role, System: s.System, Temperature: s.Temperature, PH: s.PH,
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
 		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
 		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity,

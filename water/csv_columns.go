@@ -26,6 +26,7 @@ const (
 	fieldConductivity
 	fieldPressure
 	fieldAnalyte
+	fieldUncertainty // a sample's own uncertainty of a value (csv_uncertainty.go)
 )
 
 var fieldLabels = [...]string{
@@ -89,13 +90,17 @@ type headerColumn struct {
 	analyte Analyte
 	unit    Unit
 	press   pressureUnit
+	uKey    string      // what an uncertainty column qualifies (UncertaintyKey)
 	problem *InputError // non-nil when the column cannot be used
 }
 
 // key returns what two columns of one sample may not share.
 func (c headerColumn) key() string {
-	if c.kind == fieldAnalyte {
+	switch c.kind {
+	case fieldAnalyte:
 		return "analyte " + c.analyte.Name
+	case fieldUncertainty:
+		return "uncertainty " + c.uKey
 	}
 	return "field " + strconv.Itoa(int(c.kind))
 }
@@ -110,8 +115,11 @@ func (c headerColumn) componentKey() string {
 }
 
 func (c headerColumn) name() string {
-	if c.kind == fieldAnalyte {
+	switch c.kind {
+	case fieldAnalyte:
 		return c.analyte.Name
+	case fieldUncertainty:
+		return "the uncertainty of " + c.uKey
 	}
 	return fieldLabels[c.kind]
 }
@@ -166,6 +174,11 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 	if label == "" && !hasUnit {
 		c.kind = fieldBlank
 		return c, false, nil
+	}
+	if target, ok := uncertaintyTarget(label); ok {
+		c, unitFault, err = rd.classifyUncertainty(target, unit, hasUnit)
+		c.label = label
+		return c, unitFault, err
 	}
 	if k, ok := fieldNames[fieldKey(label)]; ok {
 		c.kind = k

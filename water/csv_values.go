@@ -223,6 +223,8 @@ func (b *sampleBuilder) set(c headerColumn, v cellValue, policy DetectionPolicy)
 			return errors.New("negative conductivity")
 		}
 		b.s.Conductivity = c.unit.ToMicroSiemens(x)
+	case fieldUncertainty:
+		return b.setUncertainty(c, x)
 	case fieldPressure:
 		p := x*c.press.scale + c.press.offset
 		if p <= 0 || p > 1000 {
