@@ -37,7 +37,7 @@ func ExampleSpeciate() {
 	fmt.Printf("calcite SI %+.2f: %s\n", si, saturation.RiskBand("calcite", si))
 	// Output:
 	// at 30 °C: pH 8.14, I 0.0298 mol/kg (pitzer)
-	// calcite SI +1.14: supersaturated – within inhibitor reach
+	// calcite SI +1.07: supersaturated – within inhibitor reach
 }
 
 // ExampleSweep prints results for an invented water.
@@ -57,9 +57,9 @@ func ExampleSweep() {
 		fmt.Printf("%2.0f °C: calcite SI %+.2f\n", p.X, si)
 	}
 	// Output:
-	// 20 °C: calcite SI +1.13
-	// 50 °C: calcite SI +1.17
-	// 80 °C: calcite SI +1.27
+	// 20 °C: calcite SI +1.06
+	// 50 °C: calcite SI +1.10
+	// 80 °C: calcite SI +1.19
 }
 
 // ExampleDoseToTarget prints results for an invented water.

@@ -127,9 +127,11 @@ func (set *pitzerSet) reduceTable(m *Model, role map[string]pitzerKind, logK map
 			set.excluded = append(set.excluded, e.Name)
 			continue
 		}
-		if p, ok := logK[e.Name]; ok && e.Phase != Master {
+		if p, ok := logK[e.Name]; ok && e.Phase != Master && (e.File == "" || e.File == "data/thermo.csv") {
 			// The Pitzer set's own log K at 25 °C; the row's temperature
-			// dependence is kept (shifted by the difference at 25 °C).
+			// dependence is kept (shifted by the difference at 25 °C). A
+			// row the user replaced (--thermo) is the user's choice and is
+			// kept as given.
 			shift := p.value - e.LogK(25)
 			e.LogK25 = p.value
 			if e.HasAnalytic {
