@@ -10,6 +10,7 @@ import (
 	"scalerisk/plan"
 	"scalerisk/reports"
 	"scalerisk/saturation"
+	"scalerisk/uncertainty"
 	"scalerisk/water"
 )
 
@@ -76,6 +77,7 @@ func TestClientText(t *testing.T) {
 		for _, settings := range []plan.Settings{
 			{Target: &target, Profile: &profile, CyclesRule: &rule, Partner: &as[0].Input, BlendFraction: 0.4},
 			{Reagent: caustic, Target: &target, Profile: &profile},
+			{Target: &target, Profile: &profile, Uncertainty: uncertainty.Settings{Draws: 30, Seed: 1}},
 		} {
 			var buf bytes.Buffer
 			hw, err := reports.NewHTMLWriter(reports.Report{Client: "Kestrel Fen Energy Centre",
