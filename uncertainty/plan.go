@@ -236,7 +236,7 @@ func detectionLimit(a water.Analysis, c water.Component) (float64, bool) {
 		return a.Totals[c] * bdl.Limit / bdl.Value, true
 	}
 	// Taken as zero: convert the limit the way the reader converts values.
-	mol, err := bdl.Unit.Amount(bdl.Analyte, bdl.Limit, water.Analytes())
+	mol, err := bdl.Unit.Amount(*bdl.Analyte, bdl.Limit, water.Analytes())
 	if err != nil {
 		return 0, false
 	}

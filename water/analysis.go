@@ -118,8 +118,8 @@ func EstimateDensity(tds, t float64) float64 { return WaterDensity(t) + densityS
 
 // Measurement is one analyte value of a sample as read, before conversion.
 type Measurement struct {
-	Analyte Analyte
-	Value   float64 // in Unit; for a below-detection value, the substitute
+	Analyte *Analyte // shared by the measurements of one column of a file; read only
+	Value   float64  // in Unit; for a below-detection value, the substitute
 	Unit    Unit
 	Column  string // the header or analyte name it came from
 	// BelowDetection reports a "<x" value; Limit holds x.
@@ -215,7 +215,7 @@ func (s Sample) amounts(forms *AnalyteTable, a *Analysis) ([]sampleAmount, error
 		if m.Value < 0 {
 			return nil, fmt.Errorf("%s: negative concentration %g", m.Column, m.Value)
 		}
-		mol, err := m.Unit.Amount(m.Analyte, m.Value, forms)
+		mol, err := m.Unit.Amount(*m.Analyte, m.Value, forms)
 		if err != nil {
 			return nil, fmt.Errorf("%s: %w", m.Column, err)
 		}

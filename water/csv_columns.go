@@ -87,7 +87,7 @@ type headerColumn struct {
 	header  string // as written, trimmed
 	label   string // the header without its unit
 	kind    fieldKind
-	analyte Analyte
+	analyte *Analyte // the column's analyte, shared by the measurements of its rows
 	unit    Unit
 	press   pressureUnit
 	uKey    string      // what an uncertainty column qualifies (UncertaintyKey)
@@ -183,7 +183,7 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 	if k, ok := fieldNames[fieldKey(label)]; ok {
 		c.kind = k
 	} else if a, ok := rd.table.Lookup(label); ok {
-		c.kind, c.analyte = fieldAnalyte, a
+		c.kind, c.analyte = fieldAnalyte, &a
 	} else {
 		return c, false, errUnknownColumn
 	}
@@ -238,7 +238,7 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 		if u.Quantity != Concentration {
 			return c, true, fmt.Errorf("unit %q is not a concentration", unit)
 		}
-		if _, err := u.Amount(c.analyte, 1, rd.table); err != nil {
+		if _, err := u.Amount(*c.analyte, 1, rd.table); err != nil {
 			return c, true, err
 		}
 		c.unit = u.withForm(c.analyte.Component, rd.table)

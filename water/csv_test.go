@@ -619,8 +619,8 @@ func TestCSVBrineMolality(t *testing.T) {
 		s := water.NewSample("brine")
 		s.Temperature, s.Density = 20, rho
 		s.Measurements = []water.Measurement{
-			{Analyte: na, Unit: unit, Value: naclMg * 22.990 / naclMass, Column: "Na"},
-			{Analyte: cl, Unit: unit, Value: naclMg * 35.45 / naclMass, Column: "Cl"},
+			{Analyte: &na, Unit: unit, Value: naclMg * 22.990 / naclMass, Column: "Na"},
+			{Analyte: &cl, Unit: unit, Value: naclMg * 35.45 / naclMass, Column: "Cl"},
 		}
 		return s
 	}

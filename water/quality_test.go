@@ -28,7 +28,7 @@ func qtWater(t *testing.T, name string, tds, ec float64, vals ...qtValue) Analys
 		if err != nil {
 			t.Fatalf("unit %q: %v", v.unit, err)
 		}
-		s.Measurements = append(s.Measurements, Measurement{Analyte: an, Value: v.value, Unit: u,
+		s.Measurements = append(s.Measurements, Measurement{Analyte: &an, Value: v.value, Unit: u,
 			Column: v.analyte + " [" + v.unit + "]"})
 	}
 	a, err := s.Analysis(Analytes())

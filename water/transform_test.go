@@ -21,7 +21,7 @@ func trMakeup(t *testing.T) Analysis {
 		if err != nil {
 			t.Fatal(err)
 		}
-		m := Measurement{Analyte: an, Value: v, Unit: u, Column: analyte}
+		m := Measurement{Analyte: &an, Value: v, Unit: u, Column: analyte}
 		if below {
 			m.BelowDetection, m.Limit, m.Value = true, 2*v, v
 		}
