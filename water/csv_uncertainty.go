@@ -65,7 +65,7 @@ func (rd *reader) classifyUncertainty(target, unit string, hasUnit bool) (c head
 		if !ok {
 			return c, false, fmt.Errorf("%q is not an analyte, pH or temperature: nothing to give an uncertainty to", target)
 		}
-		c.analyte, c.uKey = a, UncertaintyKey(a)
+		c.analyte, c.uKey = &a, UncertaintyKey(a)
 		if !hasUnit || unit != "%" {
 			return c, true, fmt.Errorf("the uncertainty of %s is a percentage of the value: write %q", target, target+" ± [%]")
 		}
