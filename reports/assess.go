@@ -280,6 +280,10 @@ func assessHeader(minerals []string) []string {
 	return append(header, "error", "warnings")
 }
 
+// notDefined is what the text and CSV writers say for an index that is not
+// defined for the water (JSON writes null).
+const notDefined = "not defined"
+
 // assessRow is the CSV row of one assessment.
 func assessRow(a saturation.Assessment, minerals []string) []string {
 	s := Sample(a)
@@ -289,8 +293,12 @@ func assessRow(a saturation.Assessment, minerals []string) []string {
 	if ix == nil {
 		ix = &IndicesJSON{}
 	}
+	ls := fmtG(ix.LarsonSkold)
+	if a.Indices != nil && a.Indices.LarsonSkoldUndefined {
+		ls = notDefined
+	}
 	row = append(row, fmtG(ix.LSI), fmtG(ix.LSISimplified), fmtG(ix.RSI), fmtG(ix.PSI), fmtG(ix.StiffDavis),
-		fmtG(ix.LarsonSkold), fmtG(ix.CCPP))
+		ls, fmtG(ix.CCPP))
 	for _, c := range water.Components() {
 		if v, ok := s.Totals[c.String()]; ok {
 			row = append(row, strconv.FormatFloat(v, 'g', -1, 64))
@@ -456,6 +464,9 @@ func writeIndicesText(b *strings.Builder, a saturation.Assessment) {
 		add("PSI", ix.PSI, "%.2f")
 		add("Stiff–Davis", ix.StiffDavis, "%+.2f")
 		add("Larson–Skold", ix.LarsonSkold, "%.2f")
+		if ix.LarsonSkoldUndefined {
+			parts = append(parts, "Larson–Skold "+notDefined)
+		}
 		if len(parts) > 0 {
 			fmt.Fprintf(b, "  Classic indices: %s\n", strings.Join(parts, ", "))
 		}

@@ -50,9 +50,18 @@ func indexRows(ix *saturation.Indices) []indexRow {
 		{"Ryznar (RSI)", num(ix.RSI, 2), "below about 6 scale-forming, above about 7 corrosive tendency"},
 		{"Puckorius (PSI)", num(ix.PSI, 2), "as Ryznar, with the equilibrium pH from the alkalinity"},
 		{"Stiff–Davis", signed(ix.StiffDavis, 2), "Langelier's form for waters of high ionic strength"},
-		{"Larson–Skold", num(ix.LarsonSkold, 2), "(Cl⁻ + SO₄²⁻)/alkalinity in equivalents: corrosivity to mild steel above about 0.8"},
+		{"Larson–Skold", larsonSkoldText(ix), "(Cl⁻ + SO₄²⁻)/alkalinity in equivalents: corrosivity to mild steel above about 0.8"},
 		{"CaCO₃ precipitation potential", num(ix.CCPP, 1) + " mg/L", "positive: CaCO₃ that would precipitate (as CaCO₃)"},
 	}
+}
+
+// larsonSkoldText is the Larson–Skold index to two decimals, or "not
+// defined" below 5 mg/L alkalinity as CaCO3.
+func larsonSkoldText(ix *saturation.Indices) string {
+	if ix.LarsonSkoldUndefined {
+		return notDefined
+	}
+	return num(ix.LarsonSkold, 2)
 }
 
 // scaleRows lays out the precipitation potential of an assessment; the

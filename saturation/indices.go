@@ -29,8 +29,14 @@ type Indices struct {
 	// was not available): K = pK2 − pKs − log γ(Ca2+) − log γ(HCO3−).
 	StiffDavis float64
 	// LarsonSkold is (Cl⁻ + SO4²⁻)/(HCO3⁻ + CO3²⁻) in equivalents, with the
-	// denominator taken as the total alkalinity (Larson & Skold 1958).
+	// denominator taken as the total alkalinity (Larson & Skold 1958). NaN
+	// when neither chloride nor sulfate was measured, or when it is not
+	// defined (LarsonSkoldUndefined).
 	LarsonSkold float64
+	// LarsonSkoldUndefined reports that the water's alkalinity is below 5
+	// mg/L as CaCO3 (minLarsonSkoldAlkalinity), where the ratio is not
+	// defined: writers say "not defined" rather than leave it blank.
+	LarsonSkoldUndefined bool
 	// CCPP is the calcium carbonate precipitation potential, mg/L as
 	// CaCO3: positive where calcite would precipitate to reach equilibrium,
 	// negative where the water would dissolve it (closed system; Standard
@@ -58,6 +64,7 @@ func (sp *Speciator) classicIndices(r *Result, opt Options, withCCPP bool) (Indi
 	}
 	var warnings []string
 	ix.LarsonSkold, warnings = larsonSkold(a, alk)
+	ix.LarsonSkoldUndefined = len(warnings) > 0
 	if !(ca > 0) {
 		return ix, []string{"the calcium carbonate indices need calcium"}
 	}
