@@ -41,8 +41,9 @@ type CyclesSummary struct {
 // Cycles repeats the cycles search of central (saturation.MaxCycles, with
 // its profile and carbonate rule, up to maxN in steps of step) on each draw
 // of makeup water a under opt, and summarises the highest cycles. Each draw
-// runs the whole search, warm-started within it: the cost is about
-// s.Draws cycles searches, shared among s.Workers.
+// runs the search warm-started within it, first only a little past the
+// central answer (drawCycles): the cost is about s.Draws short searches,
+// shared among s.Workers.
 func Cycles(a water.Analysis, central *saturation.CyclesResult, maxN, step float64, opt saturation.Options, s Settings) (*CyclesSummary, error) {
 	if err := s.Check(); err != nil {
 		return nil, err
@@ -55,7 +56,7 @@ func Cycles(a water.Analysis, central *saturation.CyclesResult, maxN, step float
 		return nil, err
 	}
 	eval := func(_ *saturation.Speciator, w water.Analysis, out []float64) (string, error) {
-		r, err := saturation.MaxCycles(w, central.Profile, central.Rule, maxN, step, opt)
+		r, err := drawCycles(w, central, maxN, step, opt)
 		if err != nil {
 			return "", err
 		}
@@ -79,6 +80,30 @@ func Cycles(a water.Analysis, central *saturation.CyclesResult, maxN, step float
 	sum.Sensitivity = sensitivities(smp)[0]
 	return sum, nil
 }
+
+// drawCycles is saturation.MaxCycles for one draw, searched first only up
+// to a grid point past 1.5 times the central answer: the draws' answers
+// lie near the central one, and the grid below that point is the full
+// search's, so the first crossing — the answer — is the same (to the
+// search's tolerance). Only a draw that reaches that point with every
+// limit held is searched again to maxN.
+func drawCycles(w water.Analysis, central *saturation.CyclesResult, maxN, step float64, opt saturation.Options) (*saturation.CyclesResult, error) {
+	if step <= 0 {
+		step = 0.5 // MaxCycles' default
+	}
+	short := 1 + math.Ceil((cyclesReach*central.MaxCycles-1)/step)*step
+	if short < maxN && central.MaxCycles < maxN {
+		r, err := saturation.MaxCycles(w, central.Profile, central.Rule, short, step, opt)
+		if err != nil || r.Limiting != "" || len(r.Exceeded) > 0 || r.MaxCycles < short {
+			return r, err
+		}
+	}
+	return saturation.MaxCycles(w, central.Profile, central.Rule, maxN, step, opt)
+}
+
+// cyclesReach is how far past the central answer, as a multiple, the
+// first search of a draw goes.
+const cyclesReach = 1.5
 
 // cyclesTolerance is the slack, in cycles, of "the limits still hold at
 // the central answer": the search refines its crossing to 1e-4.

@@ -84,3 +84,41 @@ func TestDoseConfidence(t *testing.T) {
 		t.Errorf("the central dose suffices in %.2f of the draws, want about half", s.PCentral)
 	}
 }
+
+// TestDrawCyclesEquivalent: the short first search of a draw gives the
+// answer of the full search (saturation.MaxCycles to the end) within the
+// search's tolerance, on draws of the demo makeup water, including one
+// whose answer lies beyond the short search (a looser profile).
+func TestDrawCyclesEquivalent(t *testing.T) {
+	a := demoWater(t, 0)
+	rule, _ := saturation.ParseCarbonateRule("natural")
+	for _, name := range []string{"inhibitor", "no-inhibitor"} {
+		prof, err := saturation.LimitProfileNamed(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		central, err := saturation.MaxCycles(a, prof, rule, 10, 0.5, saturation.Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		p, _ := newPlan(a, Settings{})
+		for i, v := range p.draws(12, 21) {
+			w := p.apply(v)
+			if i == 0 {
+				// A draw with a tenth of the calcium: its limit lies beyond the short search.
+				w.Totals[water.Ca] /= 10
+			}
+			short, err1 := drawCycles(w, central, 10, 0.5, saturation.Options{})
+			full, err2 := saturation.MaxCycles(w, prof, rule, 10, 0.5, saturation.Options{})
+			if err1 != nil || err2 != nil {
+				t.Fatalf("%s draw %d: %v %v", name, i, err1, err2)
+			}
+			if i == 0 {
+				t.Logf("%s: central %.3f; draw with a tenth of the calcium: %.3f cycles (%s)", name, central.MaxCycles, full.MaxCycles, full.Limiting)
+			}
+			if math.Abs(short.MaxCycles-full.MaxCycles) > cyclesTolerance || short.Limiting != full.Limiting {
+				t.Errorf("%s draw %d: short search %.4f (%s), full %.4f (%s)", name, i, short.MaxCycles, short.Limiting, full.MaxCycles, full.Limiting)
+			}
+		}
+	}
+}
