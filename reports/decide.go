@@ -225,9 +225,6 @@ func WriteCycles(w io.Writer, f Format, cs []CyclesOutcome) error {
 	return NewCyclesWriter(w, f, WriteOptions{Indent: true}).WriteAll(cs...)
 }
 
-// cyclesMinerals are the minerals of the CSV output of cycles.
-var cyclesMinerals = []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"}
-
 // NewCyclesWriter returns a writer of cycles answers, one at a time, in
 // format f.
 func NewCyclesWriter(w io.Writer, f Format, opt WriteOptions) *SampleWriter[CyclesOutcome] {

@@ -11,6 +11,23 @@ import (
 	"scalerisk/saturation"
 )
 
+// The headline minerals of the tabular outputs, in one place. They differ
+// on purpose and are part of the output contract (README):
+//
+//   - cyclesMinerals: the si_ columns of the cycles CSV, the scales a
+//     cooling tower is run against (calcium carbonate, calcium sulfate,
+//     the sulfates of barium and strontium, silica);
+//   - sweepMinerals: the columns of sweep's text table, which adds
+//     anhydrite (the hot side of calcium sulfate) and fluorite, in the order
+//     of the sweep table.
+//
+// The report charts its own list, plan.ChartOrder. JSON outputs carry
+// every mineral.
+var (
+	cyclesMinerals = []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"}
+	sweepMinerals  = []string{"calcite", "gypsum", "anhydrite", "barite", "celestite", "fluorite", "silica_amorphous"}
+)
+
 // MineralJSON is one mineral of the table in the JSON output of minerals.
 type MineralJSON struct {
 	Name                string  `json:"name"`

@@ -39,9 +39,6 @@ func variableKey(v saturation.Variable) string {
 	return v.String()
 }
 
-// sweepMinerals are the minerals shown in the text table of a sweep.
-var sweepMinerals = []string{"calcite", "gypsum", "anhydrite", "barite", "celestite", "fluorite", "silica_amorphous"}
-
 // WriteSweeps writes sweeps in format f (JSON indented).
 func WriteSweeps(w io.Writer, f Format, ss []SweepOutcome) error {
 	return NewSweepWriter(w, f, WriteOptions{Indent: true}).WriteAll(ss...)
