@@ -3,7 +3,9 @@ package reports_test
 import (
 	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
+	"html"
 	"os"
 	"os/exec"
 	"path/filepath"
@@ -12,7 +14,9 @@ import (
 	"testing"
 	"time"
 
+	"scalerisk/plan"
 	"scalerisk/reports"
+	"scalerisk/saturation"
 )
 
 // The browser test opens reports in headless Chromium from a file URL with
@@ -92,10 +96,7 @@ func TestBrowserRendersReports(t *testing.T) {
 	bin := findChromium(t)
 	as := demoAssessments(t)
 	dir := t.TempDir()
-	shots := os.Getenv("SCALERISK_SCREENSHOT_DIR")
-	if shots == "" {
-		shots = dir
-	}
+	shots := screenshotDir(t, dir)
 
 	// An invented monitoring series of one tower, for the chart over time.
 	var lab strings.Builder
@@ -112,9 +113,8 @@ func TestBrowserRendersReports(t *testing.T) {
 		report reports.Report
 		want   []string // chart IDs that must be drawn
 	}{
-		{"demo", reports.Report{Client: "Kestrel Fen Energy Centre", Date: "9 March 2026",
-			Inputs: []string{"demo.csv"}, Samples: reports.ReportSamples(as)},
-			[]string{"s1-temperature", "s1-cycles", "s1-dose", "s1-map", "s1-composition", "s3-map"}},
+		{"demo", demoReport(t, as),
+			[]string{"s1-temperature", "s1-cycles", "s1-dose", "s1-window", "s1-composition", "s3-window"}},
 		{"monitoring", reports.Report{Inputs: []string{"tower3.csv"}, Samples: reports.ReportSamples(series),
 			Options: reports.HTMLOptions{Detail: 1}},
 			[]string{"time-1"}},
@@ -124,52 +124,223 @@ func TestBrowserRendersReports(t *testing.T) {
 			if err := reports.WriteHTMLFile(path, tc.report); err != nil {
 				t.Fatal(err)
 			}
-			url := "file://" + filepath.ToSlash(path)
-			dom, logs := chromium(t, bin, url, "--dump-dom")
-			if lines := consoleLine.FindAllString(logs, -1); len(lines) > 0 {
-				t.Errorf("the page logged to the console (an error or a blocked request):\n%s", strings.Join(lines, "\n"))
-			}
-			// Every chart container holds a drawn SVG: the container's
-			// content up to the next container (or the caption) has an
-			// <svg> element with paths in it.
-			locs := chartContainer.FindAllStringSubmatchIndex(dom, -1)
-			if len(locs) == 0 {
-				t.Fatalf("no chart container in the rendered page (%d bytes of DOM)", len(dom))
-			}
-			drawn := map[string]bool{}
-			for i, loc := range locs {
-				id := dom[loc[2]:loc[3]]
-				end := len(dom)
-				if i+1 < len(locs) {
-					end = locs[i+1][0]
-				}
-				body := dom[loc[1]:end]
-				if c := strings.Index(body, "<figcaption"); c >= 0 {
-					body = body[:c]
-				}
-				if !strings.Contains(body, "<svg") || !strings.Contains(body, "<path") {
-					t.Errorf("chart %s is not drawn (no SVG with paths in its container)", id)
-					continue
-				}
-				drawn[id] = true
-			}
-			for _, id := range tc.want {
-				if !drawn[id] {
-					t.Errorf("chart %s missing or not drawn", id)
-				}
-			}
-			t.Logf("%s: %d charts drawn", tc.name, len(drawn))
-
+			checkRendered(t, bin, path, tc.want)
 			shot := filepath.Join(shots, "report-"+tc.name+".png")
-			chromium(t, bin, url, "--hide-scrollbars", "--window-size=1280,2400", "--screenshot="+shot)
-			fi, err := os.Stat(shot)
-			if err != nil {
-				t.Fatalf("no screenshot: %v", err)
-			}
-			if fi.Size() < 20_000 {
-				t.Errorf("screenshot %s is only %d bytes: is the page blank?", shot, fi.Size())
-			}
-			t.Logf("screenshot: %s", shot)
+			chromium(t, bin, "file://"+filepath.ToSlash(path), "--hide-scrollbars", "--window-size=1280,2400", "--screenshot="+shot)
+			checkShot(t, shot)
 		})
 	}
+}
+
+// screenshotDir is where the screenshots go: SCALERISK_SCREENSHOT_DIR, or
+// the test's temporary directory.
+func screenshotDir(t *testing.T, dir string) string {
+	shots := os.Getenv("SCALERISK_SCREENSHOT_DIR")
+	if shots == "" {
+		return dir
+	}
+	if err := os.MkdirAll(shots, 0o755); err != nil {
+		t.Fatal(err)
+	}
+	return shots
+}
+
+// demoReport is the demo report with every part: a dose to LSI +0.5 and the
+// highest cycles under the inhibitor limits (the defaults of the report
+// command).
+func demoReport(t *testing.T, as []saturation.Assessment) reports.Report {
+	target, err := saturation.ParseTarget("lsi=0.5", nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	profile, err := saturation.LimitProfileNamed("inhibitor")
+	if err != nil {
+		t.Fatal(err)
+	}
+	rule, err := saturation.ParseCarbonateRule("natural")
+	if err != nil {
+		t.Fatal(err)
+	}
+	return reports.Report{Client: "Kestrel Fen Energy Centre", Date: "9 March 2026", Inputs: []string{"demo.csv"},
+		Samples: reports.ReportSamples(as),
+		Options: reports.HTMLOptions{Plan: plan.Settings{Target: &target, Profile: &profile, CyclesRule: &rule}}}
+}
+
+func checkShot(t *testing.T, shot string) {
+	t.Helper()
+	fi, err := os.Stat(shot)
+	if err != nil {
+		t.Fatalf("no screenshot: %v", err)
+	}
+	if fi.Size() < 20_000 {
+		t.Errorf("screenshot %s is only %d bytes: is the page blank?", shot, fi.Size())
+	}
+	t.Logf("screenshot: %s", shot)
+}
+
+// measureJS runs in the rendered page once the charts are drawn and writes
+// what it measured into <pre id="measured"> as JSON: for every chart, how
+// many SVG shapes it drew, the pairs of its visible texts whose boxes
+// overlap (by more than 1 px each way), and the texts whose boxes leave the
+// chart's box.
+const measureJS = `<script>
+window.addEventListener("load", function () { setTimeout(function () {
+  var out = [];
+  var nodes = document.querySelectorAll("div.chart[data-chart]");
+  for (var i = 0; i < nodes.length; i++) {
+    var n = nodes[i], box = n.getBoundingClientRect();
+    var rec = {id: n.getAttribute("data-chart"), shapes: n.querySelectorAll("svg path, svg rect, svg circle").length,
+      overlaps: [], outside: []};
+    var texts = [], els = n.querySelectorAll("svg text");
+    for (var j = 0; j < els.length; j++) {
+      var e = els[j], s = (e.textContent || "").trim();
+      if (!s || getComputedStyle(e).visibility === "hidden" || e.getAttribute("opacity") === "0") { continue; }
+      var r = e.getBoundingClientRect();
+      if (r.width === 0 || r.height === 0) { continue; }
+      texts.push({s: s, r: r});
+      if (r.left < box.left - 1 || r.right > box.right + 1 || r.top < box.top - 1 || r.bottom > box.bottom + 1) {
+        rec.outside.push(s);
+      }
+    }
+    for (var a = 0; a < texts.length; a++) {
+      for (var b = a + 1; b < texts.length; b++) {
+        var p = texts[a].r, q = texts[b].r;
+        var w = Math.min(p.right, q.right) - Math.max(p.left, q.left);
+        var h = Math.min(p.bottom, q.bottom) - Math.max(p.top, q.top);
+        if (w > 1 && h > 1) { rec.overlaps.push(texts[a].s + " / " + texts[b].s); }
+      }
+    }
+    out.push(rec);
+  }
+  var pre = document.createElement("pre");
+  pre.id = "measured";
+  pre.textContent = JSON.stringify(out);
+  document.body.appendChild(pre);
+}, 300); });
+</script>`
+
+// measured is what measureJS reports of one chart.
+type measured struct {
+	ID       string   `json:"id"`
+	Shapes   int      `json:"shapes"`
+	Overlaps []string `json:"overlaps"`
+	Outside  []string `json:"outside"`
+}
+
+// measuredRe finds the measurements in the dumped DOM.
+var measuredRe = regexp.MustCompile(`<pre id="measured">([^<]*)</pre>`)
+
+// checkRendered opens a copy of the page at path with measureJS in it and
+// checks what a reader would see: no console message (an error, or a
+// blocked request), every chart drawn, the wanted ones among them, no chart
+// text over another and none outside its chart.
+func checkRendered(t *testing.T, bin, path string, want []string) {
+	t.Helper()
+	raw, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := string(raw)
+	at := strings.LastIndex(page, "</body>")
+	probe := filepath.Join(filepath.Dir(path), "probe-"+filepath.Base(path))
+	if err := os.WriteFile(probe, []byte(page[:at]+measureJS+page[at:]), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	dom, logs := chromium(t, bin, "file://"+filepath.ToSlash(probe), "--window-size=1280,2000", "--dump-dom")
+	if lines := consoleLine.FindAllString(logs, -1); len(lines) > 0 {
+		t.Errorf("the page logged to the console (an error or a blocked request):\n%s", strings.Join(lines, "\n"))
+	}
+	m := measuredRe.FindStringSubmatch(dom)
+	if m == nil {
+		t.Fatalf("the page did not report its measurements (%d bytes of DOM)", len(dom))
+	}
+	var charts []measured
+	if err := json.Unmarshal([]byte(html.UnescapeString(m[1])), &charts); err != nil {
+		t.Fatal(err)
+	}
+	if len(charts) == 0 {
+		t.Fatal("no chart container in the rendered page")
+	}
+	drawn := map[string]bool{}
+	for _, c := range charts {
+		if c.Shapes == 0 {
+			t.Errorf("chart %s is not drawn (no SVG shape in its container)", c.ID)
+			continue
+		}
+		drawn[c.ID] = true
+		for _, o := range c.Overlaps {
+			t.Errorf("chart %s: labels overlap: %s", c.ID, o)
+		}
+		for _, o := range c.Outside {
+			t.Errorf("chart %s: text outside the chart: %q", c.ID, o)
+		}
+	}
+	for _, id := range want {
+		if !drawn[id] {
+			t.Errorf("chart %s missing or not drawn", id)
+		}
+	}
+	t.Logf("%s: %d charts drawn and measured", filepath.Base(path), len(drawn))
+}
+
+// maxDemoPages bounds the printed demo report: a cover and summary page,
+// at most four pages per sample (three samples; about three is the aim of
+// issue 13) and three of methods and cautions.
+const maxDemoPages = 1 + 3*4 + 3
+
+// TestBrowserPrintsDemo prints the demo report to PDF as a reader's browser
+// would, counts its pages, and writes screenshots of the first sample's
+// charts for a person to look at.
+func TestBrowserPrintsDemo(t *testing.T) {
+	bin := findChromium(t)
+	dir := t.TempDir()
+	shots := screenshotDir(t, dir)
+	path := filepath.Join(dir, "demo.html")
+	if err := reports.WriteHTMLFile(path, demoReport(t, demoAssessments(t))); err != nil {
+		t.Fatal(err)
+	}
+	pdf := filepath.Join(shots, "report-demo.pdf")
+	chromium(t, bin, "file://"+filepath.ToSlash(path), "--no-pdf-header-footer", "--print-to-pdf="+pdf)
+	raw, err := os.ReadFile(pdf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	pages := len(pdfPage.FindAll(raw, -1))
+	t.Logf("printed demo report: %d pages (%s)", pages, pdf)
+	if pages == 0 || pages > maxDemoPages {
+		t.Errorf("the printed demo report has %d pages, want 1 to %d", pages, maxDemoPages)
+	}
+	raw, err = os.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, id := range chartIDs(string(raw)) {
+		if !strings.HasPrefix(id, "s1-") {
+			continue
+		}
+		one := filepath.Join(dir, "one-"+id+".html")
+		if err := os.WriteFile(one, []byte(onlyFigure(t, string(raw), id)), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		shot := filepath.Join(shots, "demo-"+id+".png")
+		chromium(t, bin, "file://"+filepath.ToSlash(one), "--hide-scrollbars", "--window-size=1150,900", "--screenshot="+shot)
+		checkShot(t, shot)
+	}
+}
+
+// pdfPage matches a page object of a PDF ("/Type /Page", not "/Pages").
+var pdfPage = regexp.MustCompile(`/Type\s*/Page[^s]`)
+
+// onlyFigure is the page with only the figure of chart id in its body (the
+// style, the chart library and the chart script kept), for a screenshot.
+func onlyFigure(t *testing.T, page, id string) string {
+	t.Helper()
+	fig := regexp.MustCompile(`(?s)<figure>\s*<h4>[^<]*</h4>\s*<div class="chart" id="` + regexp.QuoteMeta(id) + `".*?</figure>`).FindString(page)
+	body := strings.Index(page, "<body>") + len("<body>")
+	scripts := strings.Index(page, "<script>")
+	end := strings.LastIndex(page, "</body>")
+	if fig == "" || body < len("<body>") || scripts < 0 || end < scripts {
+		t.Fatalf("figure %s not found in the page", id)
+	}
+	return page[:body] + `<div class="sheet"><main>` + fig + `</main></div>` + page[scripts:end] + "</body></html>"
 }

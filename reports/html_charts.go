@@ -146,8 +146,8 @@ func (pc panelChart) option() (map[string]any, error) {
 		col, row := i%cols, i/cols
 		top := row*panelRowHeight + panelTitleGap
 		grids = append(grids, opts.Grid{
-			Left:   pct(float64(col)*colWidth + 5.5),
-			Width:  pct(colWidth - 9),
+			Left:   pct(float64(col)*colWidth + 7.5),
+			Width:  pct(colWidth - 10.5),
 			Top:    fmt.Sprintf("%dpx", top),
 			Height: fmt.Sprintf("%dpx", panelRowHeight-panelTitleGap-panelBottomGap),
 		})
@@ -156,7 +156,7 @@ func (pc panelChart) option() (map[string]any, error) {
 			"textStyle": map[string]any{"fontSize": 13, "fontWeight": 600, "color": "#1b2733", "fontFamily": fontFamily},
 		})
 		xa := opts.XAxis{
-			Type: "value", GridIndex: i, Name: pc.XName, NameLocation: "middle", NameGap: 26,
+			Type: "value", GridIndex: i, Name: pc.XName, NameLocation: "middle", NameGap: 26, SplitNumber: 4,
 			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true), HideOverlap: opts.Bool(true)},
 			SplitLine: &opts.SplitLine{Show: opts.Bool(false)},
 		}
@@ -179,7 +179,7 @@ func (pc panelChart) option() (map[string]any, error) {
 		}
 		yAxes = append(yAxes, opts.YAxis{
 			Type: "value", GridIndex: i, Min: lo, Max: hi, MinInterval: step, MaxInterval: step,
-			Name: p.YName, NameLocation: "middle", NameGap: 38,
+			Name: p.YName, NameLocation: "middle", NameGap: 44,
 			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true)},
 			SplitLine: &opts.SplitLine{Show: opts.Bool(true), LineStyle: &opts.LineStyle{Color: "#e6e9ee"}},
 		})

@@ -160,7 +160,7 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 		cyc.Marks = append(cyc.Marks, xMark{dec(c.MaxCycles, 2), "highest cycles " + num(c.MaxCycles, 1)})
 		cycKey = fmt.Sprintf(" Dotted vertical line: the highest cycles, %s.", num(c.MaxCycles, 1))
 	}
-	dose := panelChart{ID: id("dose"), XName: "Dose of " + b.reagent.Formula + ", mg/L of product", XMin: 0, XMax: math.NaN(),
+	dose := panelChart{ID: id("dose"), XName: "Dose of " + b.reagent.Formula + ", mg/L of product", XMin: 0, XMax: dec(sw.maxDose, 1),
 		Panels: append([]panel{phPanel(sw.dose, 1)}, b.siPanels(sw.dose, sw.minerals, 1)...)}
 	doseKey := ""
 	if d := s.DoseAnswer; d != nil && d.Reached && d.Dose > 0 &&

@@ -264,9 +264,18 @@ func qualityRows(q water.Quality, r *saturation.Result) ([]qualityRow, []kv, []s
 // the methods).
 func (b *builder) mineralRows(s *plan.Sample) (rows []mineralRow, omitted int) {
 	names := slices.Clone(s.Minerals)
+	formulas := map[string]bool{}
+	for _, n := range names {
+		if m, ok := mineralOf(s.Result, n); ok {
+			formulas[m.Formula] = true
+		}
+	}
 	for _, rk := range s.Ranking {
-		if !slices.Contains(names, rk.Name) {
+		// A polymorph of a mineral in the table (aragonite beside
+		// calcite) has the same limit and a lower SI: left to the methods.
+		if !slices.Contains(names, rk.Name) && !formulas[rk.Formula] {
 			names = append(names, rk.Name)
+			formulas[rk.Formula] = true
 		}
 	}
 	for _, name := range names {

@@ -111,6 +111,11 @@ a { color: var(--accent); }
   .appendix .cols { display: block; }
   .appendix th, .appendix td { padding: 1px 4px; }
   .appendix table.kv td:first-child { width: auto; }
+  .appendix table, #methods table { break-inside: auto; page-break-inside: auto; }
+  tr { break-inside: avoid; page-break-inside: avoid; }
+  #methods, #cautions { font-size: 8.5pt; }
+  #methods table, #methods p, #methods ul, #cautions li { font-size: 8pt; }
+  .appendix figure { break-inside: avoid; }
   table { font-size: 9pt; }
   th, td { padding: 2px 6px; }
   h2 { font-size: 15pt; } h3 { font-size: 11.5pt; margin: 10px 0 4px; }
@@ -119,7 +124,7 @@ a { color: var(--accent); }
   /* The charts scale to the page: the script gives each SVG a viewBox. */
   .chart { height: auto !important; }
   .chart > div { width: 100% !important; height: auto !important; }
-  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 66mm; }
+  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 58mm; }
 }
 </style>
 </head>
@@ -197,30 +202,6 @@ a { color: var(--accent); }
 <p class="muted small">{{$.LimitsNote}} The margin is the limit minus the saturation index: the room left before the limit (negative: past it).{{if .MineralsOmitted}} {{.OmittedNote}}{{end}}</p>
 {{- end}}
 
-{{- range .ChartNotes}}<p class="muted small">{{.}}</p>{{end}}
-{{- range .Charts}}
-<figure>
-<h4>{{.Title}}</h4>
-<div class="chart" id="{{.ID}}" data-chart="{{.ID}}" style="height: {{.Height}}px"></div>
-<figcaption>{{.Caption}}</figcaption>
-{{- if .Caution}}<div class="caution small"><strong>Caution.</strong> {{.Caution}}</div>{{end}}
-</figure>
-{{- end}}
-
-{{- if .Indices}}
-<h3>Classic indices at {{.IndicesAt}}</h3>
-<table><thead><tr><th>Index</th><th class="n">Value</th><th>Reading</th></tr></thead><tbody>
-{{- range .Indices}}<tr><td>{{.Name}}</td><td class="n">{{.Value}}</td><td class="muted">{{.Reading}}</td></tr>{{end}}
-</tbody></table>
-{{- end}}
-{{- if .Scale}}
-<h3>Scale that could form</h3>
-<table><thead><tr><th>Mineral</th><th class="n">SI</th><th class="n">alone, mg/L</th><th class="n">together, mg/L</th>{{if .ScaleKg}}<th class="n">alone, kg/day</th><th class="n">together, kg/day</th>{{end}}</tr></thead><tbody>
-{{- range .Scale}}<tr><td>{{.Mineral}}</td><td class="n">{{.SI}}</td><td class="n">{{.Alone}}</td><td class="n">{{.Together}}</td>{{if .AloneKg}}<td class="n">{{.AloneKg}}</td><td class="n">{{.TogetherKg}}</td>{{end}}</tr>{{end}}
-</tbody></table>
-<p class="muted small">Milligrams of mineral per litre of water that would deposit for the water to reach equilibrium with it: each mineral alone, and all of them together (they compete for the same ions). Closed system, at {{.IndicesAt}}.{{if not .ScaleKg}} Amounts per day need the flow of the water, which was not given.{{end}}</p>
-{{- end}}
-
 {{- with .Treatment}}
 <h3>Treatment</h3>
 {{- if .NoDose}}
@@ -261,8 +242,30 @@ a { color: var(--accent); }
 {{- if .Meaning}}<p class="muted small">{{.Meaning}}</p>{{end}}
 {{- if .Notes}}<ul class="small">{{range .Notes}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{- end}}
+{{- range .ChartNotes}}<p class="muted small">{{.}}</p>{{end}}
+{{- range .Charts}}
+<figure>
+<h4>{{.Title}}</h4>
+<div class="chart" id="{{.ID}}" data-chart="{{.ID}}" style="height: {{.Height}}px"></div>
+<figcaption>{{.Caption}}</figcaption>
+{{- if .Caution}}<div class="caution small"><strong>Caution.</strong> {{.Caution}}</div>{{end}}
+</figure>
+{{- end}}
 
 <div class="appendix">
+{{- if .Indices}}
+<h3>Classic indices at {{.IndicesAt}}</h3>
+<table><thead><tr><th>Index</th><th class="n">Value</th><th>Reading</th></tr></thead><tbody>
+{{- range .Indices}}<tr><td>{{.Name}}</td><td class="n">{{.Value}}</td><td class="muted">{{.Reading}}</td></tr>{{end}}
+</tbody></table>
+{{- end}}
+{{- if .Scale}}
+<h3>Scale that could form</h3>
+<table><thead><tr><th>Mineral</th><th class="n">SI</th><th class="n">alone, mg/L</th><th class="n">together, mg/L</th>{{if .ScaleKg}}<th class="n">alone, kg/day</th><th class="n">together, kg/day</th>{{end}}</tr></thead><tbody>
+{{- range .Scale}}<tr><td>{{.Mineral}}</td><td class="n">{{.SI}}</td><td class="n">{{.Alone}}</td><td class="n">{{.Together}}</td>{{if .AloneKg}}<td class="n">{{.AloneKg}}</td><td class="n">{{.TogetherKg}}</td>{{end}}</tr>{{end}}
+</tbody></table>
+<p class="muted small">Milligrams of mineral per litre of water that would deposit for the water to reach equilibrium with it: each mineral alone, and all of them together (they compete for the same ions). Closed system, at {{.IndicesAt}}.{{if not .ScaleKg}} Amounts per day need the flow of the water, which was not given.{{end}}</p>
+{{- end}}
 <h3>The analysis as entered and as used</h3>
 <div class="cols">
 <table class="kv"><tbody>{{range .Entered}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
