@@ -211,3 +211,34 @@ func demoWater(t testing.TB, i int) water.Analysis {
 	}
 	return recs[i].Analysis
 }
+
+// TestSensitivityShares: for SI linear in ln m(Ba) and ln m(SO4), the
+// share of the variance each input explains is its term of the law of
+// propagation, c²u²/Σc²u² (JCGM 100:2008, 5.1.2; with c = 1/ln 10 for
+// both, σ²(ln Ba)/(σ²(ln Ba) + σ²(ln SO4))), within 0.02, and the linear
+// fit explains over 99 % of the variance.
+func TestSensitivityShares(t *testing.T) {
+	const tol = 0.02
+	a := readOne(t, diluteBarite)
+	central := saturation.AssessAnalysis(a, saturation.Options{})
+	s, err := Assess(central, saturation.Options{}, Settings{Draws: 2000, Seed: 5, Table: bariteTable(t), KeepAll: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	q, _ := s.Quantity("barite")
+	vBa, vSO4 := math.Log1p(0.20*0.20), math.Log1p(0.05*0.05) // σ² of the logs
+	want := map[string]float64{"Ba": vBa / (vBa + vSO4), "SO4": vSO4 / (vBa + vSO4)}
+	got := map[string]float64{}
+	for _, sh := range q.Sensitivity.Shares {
+		got[sh.Input] = sh.Share
+	}
+	t.Logf("shares %v, want %v; R² %.4f", got, want, q.Sensitivity.Explained)
+	for in, w := range want {
+		if math.Abs(got[in]-w) > tol {
+			t.Errorf("share of %s = %.3f, want %.3f ± %.2f (law of propagation)", in, got[in], w, tol)
+		}
+	}
+	if q.Sensitivity.Explained < 0.99 || q.Sensitivity.Top() != "Ba" {
+		t.Errorf("R² %.4f, top %q: want above 0.99 and Ba", q.Sensitivity.Explained, q.Sensitivity.Top())
+	}
+}
