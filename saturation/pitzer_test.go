@@ -73,6 +73,7 @@ var (
 	saltBaCl2  = salt{"BaCl2", "Ba[2+]", "Cl[-]", 1, 2}
 	saltNa2SO4 = salt{"Na2SO4", "Na[+]", "SO4[2-]", 2, 1}
 	saltMgSO4  = salt{"MgSO4", "Mg[2+]", "SO4[2-]", 1, 1}
+	saltK2SO4  = salt{"K2SO4", "K[+]", "SO4[2-]", 2, 1}
 )
 
 // meanActivity returns γ± and φ of salt s at molality m and 25 °C from the
@@ -87,85 +88,97 @@ func meanActivity(t *testing.T, set *pitzerSet, s salt, m float64) (gpm, phi flo
 	return math.Exp((s.nuC*lng[s.cation] + s.nuA*lng[s.anion]) / (s.nuC + s.nuA)), phi
 }
 
+// meanActivityRow is one tabulated γ± of a single salt at 25 °C, the
+// tolerance the Pitzer equations meet against it, and, where the automatic
+// model cannot meet tolAuto, why (a gap listed in DEVELOPERS.md).
+type meanActivityRow struct {
+	s       salt
+	m, want float64
+	tol     float64
+	source  string
+	gap     string
+}
+
+// Sources of the γ± tables (values as gathered in
+// testdata/reference/thermo.md §7.1).
+const (
+	rs   = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY, testdata/reference/thermo.md §7.1]"
+	crc  = "CRC Handbook (Hamer & Wu 1972; Goldberg) [READ, testdata/reference/thermo.md §7.1]"
+	rsMg = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY]"
+)
+
+// meanActivityTable holds the γ± checks of TestPitzerMeanActivity and
+// TestMeanActivityAutomatic.
+var meanActivityTable = []meanActivityRow{
+	{saltNaCl, 0.1, 0.778, tolGammaTable, rs, ""},
+	{saltNaCl, 0.5, 0.681, tolGammaTable, rs, ""},
+	{saltNaCl, 1, 0.657, tolGammaTable, rs, ""},
+	{saltNaCl, 2, 0.668, tolGammaTable, rs, ""},
+	{saltNaCl, 3, 0.714, tolGammaTable, rs, ""},
+	{saltNaCl, 4, 0.783, tolGammaTable, rs, ""},
+	{saltNaCl, 5, 0.874, tolGammaTable, rs, ""},
+	{saltNaCl, 6, 0.986, tolGammaTable, rs, ""},
+	{saltKCl, 0.1, 0.770, tolGammaTable, rs, ""},
+	{saltKCl, 0.5, 0.649, tolGammaTable, rs, ""},
+	{saltKCl, 1, 0.604, tolGammaTable, rs, ""},
+	{saltKCl, 2, 0.573, tolGammaTable, rs, ""},
+	{saltKCl, 3, 0.569, tolGammaTable, rs, ""},
+	{saltKCl, 4, 0.577, tolGammaTable, rs, ""}, // saturation about 4.8 mol/kg
+	{saltCaCl2, 0.1, 0.518, tolGammaTable, rs, ""},
+	{saltCaCl2, 0.5, 0.448, tolGammaTable, rs, ""},
+	{saltCaCl2, 1, 0.500, tolGammaTable, rs, ""},
+	{saltCaCl2, 2, 0.792, tolGammaTable, rs, ""},
+	{saltCaCl2, 3, 1.483, tolGammaTable, rs, ""},
+	{saltCaCl2, 0.1, 0.517, tolGammaTable, crc, ""},
+	{saltCaCl2, 0.5, 0.444, tolGammaTable, crc, ""},
+	{saltCaCl2, 1, 0.495, tolGammaTable, crc, ""},
+	// The two tables differ by 1 % at 2 mol/kg (0.784 and 0.792).
+	{saltCaCl2, 2, 0.784, 0.025, crc, ""},
+	// Beyond 3 mol/kg CaCl2 the PM73 = HMW84 parameters (fitted to about
+	// 2.5 mol/kg) run high: 3 % at 4–5 mol/kg, 7 % at 6. A known limit,
+	// stated in DEVELOPERS.md; checked here with that tolerance.
+	{saltCaCl2, 4, 2.934, 0.04, rs, ""},
+	{saltCaCl2, 5, 5.907, 0.04, crc, ""},
+	{saltCaCl2, 6, 11.11, 0.08, rs, "HMW84 = PM73 CaCl2 parameters are fitted to about 2.5 mol/kg: 3 % low at 4–5 mol/kg, 7 % high at 6"},
+	{saltMgCl2, 0.1, 0.529, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 0.5, 0.481, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 1, 0.570, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 2, 1.053, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 3, 2.32, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 4, 5.53, tolGammaTable, rsMg, ""},
+	{saltMgCl2, 5, 13.92, tolGammaTable, rsMg, ""}, // saturation about 5.8 mol/kg
+	{saltBaCl2, 0.1, 0.500, tolGammaTable, rsMg, ""},
+	{saltBaCl2, 0.5, 0.397, tolGammaTable, rsMg, ""},
+	{saltBaCl2, 1, 0.395, tolGammaTable, rsMg, ""},
+	// CRC BaCl2 lies 1.5 % below R&S; PM73 follows R&S.
+	{saltBaCl2, 0.1, 0.492, 0.03, crc, ""},
+	{saltBaCl2, 0.5, 0.391, 0.03, crc, ""},
+	{saltBaCl2, 1, 0.393, 0.03, crc, ""},
+	// Na2SO4: the recalled R&S values are uncertain and lie about 2 %
+	// below every Pitzer fit (testdata/reference/thermo.md §7.1); 3 % is the honest
+	// tolerance against them.
+	{saltNa2SO4, 0.1, 0.445, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+	{saltNa2SO4, 0.5, 0.266, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+	{saltNa2SO4, 1, 0.201, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+	{saltNa2SO4, 2, 0.152, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+	{saltNa2SO4, 3, 0.139, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+	// MgSO4: R&S (recalled) lies 9–13 % below the HMW84 = Pitzer &
+	// Mayorga 1974 curve at 0.1–2 mol/kg, a different low-concentration
+	// anchor for 2-2 salts (testdata/reference/thermo.md §7.1 advises not to use it as a
+	// tight test); the code is checked tightly against the [COMPUTED]
+	// values in TestPitzerComputedValues.
+	{saltMgSO4, 0.1, 0.150, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", "the recalled R&S MgSO4 values lie 9–13 % below the HMW84 = Pitzer & Mayorga 1974 curve (a different low-concentration anchor for 2-2 salts, thermo.md §7.1); uncertain reference, not a 3 % check"},
+	{saltMgSO4, 0.5, 0.0675, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", "the recalled R&S MgSO4 values lie 9–13 % below the HMW84 = Pitzer & Mayorga 1974 curve (a different low-concentration anchor for 2-2 salts, thermo.md §7.1); uncertain reference, not a 3 % check"},
+	{saltMgSO4, 1, 0.0485, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", "the recalled R&S MgSO4 values lie 9–13 % below the HMW84 = Pitzer & Mayorga 1974 curve (a different low-concentration anchor for 2-2 salts, thermo.md §7.1); uncertain reference, not a 3 % check"},
+	{saltMgSO4, 2, 0.0424, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", "the recalled R&S MgSO4 values lie 9–13 % below the HMW84 = Pitzer & Mayorga 1974 curve (a different low-concentration anchor for 2-2 salts, thermo.md §7.1); uncertain reference, not a 3 % check"},
+	{saltMgSO4, 3, 0.0532, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]", ""},
+}
+
 // TestPitzerMeanActivity compares γ± of single salts at 25 °C with the
 // standard tables (values as gathered in testdata/reference/thermo.md §7.1).
 func TestPitzerMeanActivity(t *testing.T) {
 	set := pitzerSetT(t)
-	const (
-		rs   = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY, testdata/reference/thermo.md §7.1]"
-		crc  = "CRC Handbook (Hamer & Wu 1972; Goldberg) [READ, testdata/reference/thermo.md §7.1]"
-		rsMg = "Robinson & Stokes 1959 App. 8.10 [FROM MEMORY]"
-	)
-	tests := []struct {
-		s       salt
-		m, want float64
-		tol     float64
-		source  string
-	}{
-		{saltNaCl, 0.1, 0.778, tolGammaTable, rs},
-		{saltNaCl, 0.5, 0.681, tolGammaTable, rs},
-		{saltNaCl, 1, 0.657, tolGammaTable, rs},
-		{saltNaCl, 2, 0.668, tolGammaTable, rs},
-		{saltNaCl, 3, 0.714, tolGammaTable, rs},
-		{saltNaCl, 4, 0.783, tolGammaTable, rs},
-		{saltNaCl, 5, 0.874, tolGammaTable, rs},
-		{saltNaCl, 6, 0.986, tolGammaTable, rs},
-		{saltKCl, 0.1, 0.770, tolGammaTable, rs},
-		{saltKCl, 0.5, 0.649, tolGammaTable, rs},
-		{saltKCl, 1, 0.604, tolGammaTable, rs},
-		{saltKCl, 2, 0.573, tolGammaTable, rs},
-		{saltKCl, 3, 0.569, tolGammaTable, rs},
-		{saltKCl, 4, 0.577, tolGammaTable, rs}, // saturation about 4.8 mol/kg
-		{saltCaCl2, 0.1, 0.518, tolGammaTable, rs},
-		{saltCaCl2, 0.5, 0.448, tolGammaTable, rs},
-		{saltCaCl2, 1, 0.500, tolGammaTable, rs},
-		{saltCaCl2, 2, 0.792, tolGammaTable, rs},
-		{saltCaCl2, 3, 1.483, tolGammaTable, rs},
-		{saltCaCl2, 0.1, 0.517, tolGammaTable, crc},
-		{saltCaCl2, 0.5, 0.444, tolGammaTable, crc},
-		{saltCaCl2, 1, 0.495, tolGammaTable, crc},
-		// The two tables differ by 1 % at 2 mol/kg (0.784 and 0.792).
-		{saltCaCl2, 2, 0.784, 0.025, crc},
-		// Beyond 3 mol/kg CaCl2 the PM73 = HMW84 parameters (fitted to about
-		// 2.5 mol/kg) run high: 3 % at 4–5 mol/kg, 7 % at 6. A known limit,
-		// stated in DEVELOPERS.md; checked here with that tolerance.
-		{saltCaCl2, 4, 2.934, 0.04, rs},
-		{saltCaCl2, 5, 5.907, 0.04, crc},
-		{saltCaCl2, 6, 11.11, 0.08, rs},
-		{saltMgCl2, 0.1, 0.529, tolGammaTable, rsMg},
-		{saltMgCl2, 0.5, 0.481, tolGammaTable, rsMg},
-		{saltMgCl2, 1, 0.570, tolGammaTable, rsMg},
-		{saltMgCl2, 2, 1.053, tolGammaTable, rsMg},
-		{saltMgCl2, 3, 2.32, tolGammaTable, rsMg},
-		{saltMgCl2, 4, 5.53, tolGammaTable, rsMg},
-		{saltMgCl2, 5, 13.92, tolGammaTable, rsMg}, // saturation about 5.8 mol/kg
-		{saltBaCl2, 0.1, 0.500, tolGammaTable, rsMg},
-		{saltBaCl2, 0.5, 0.397, tolGammaTable, rsMg},
-		{saltBaCl2, 1, 0.395, tolGammaTable, rsMg},
-		// CRC BaCl2 lies 1.5 % below R&S; PM73 follows R&S.
-		{saltBaCl2, 0.1, 0.492, 0.03, crc},
-		{saltBaCl2, 0.5, 0.391, 0.03, crc},
-		{saltBaCl2, 1, 0.393, 0.03, crc},
-		// Na2SO4: the recalled R&S values are uncertain and lie about 2 %
-		// below every Pitzer fit (testdata/reference/thermo.md §7.1); 3 % is the honest
-		// tolerance against them.
-		{saltNa2SO4, 0.1, 0.445, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltNa2SO4, 0.5, 0.266, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltNa2SO4, 1, 0.201, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltNa2SO4, 2, 0.152, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltNa2SO4, 3, 0.139, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		// MgSO4: R&S (recalled) lies 9–13 % below the HMW84 = Pitzer &
-		// Mayorga 1974 curve at 0.1–2 mol/kg, a different low-concentration
-		// anchor for 2-2 salts (testdata/reference/thermo.md §7.1 advises not to use it as a
-		// tight test); the code is checked tightly against the [COMPUTED]
-		// values in TestPitzerComputedValues.
-		{saltMgSO4, 0.1, 0.150, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltMgSO4, 0.5, 0.0675, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltMgSO4, 1, 0.0485, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltMgSO4, 2, 0.0424, 0.13, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-		{saltMgSO4, 3, 0.0532, 0.03, "Robinson & Stokes 1959 [FROM MEMORY, uncertain; testdata/reference/thermo.md §7.1]"},
-	}
-	for _, tc := range tests {
+	for _, tc := range meanActivityTable {
 		got, _ := meanActivity(t, set, tc.s, tc.m)
 		if math.Abs(got/tc.want-1) > tc.tol {
 			t.Errorf("γ±(%s, %g mol/kg, 25 °C) = %.4g, want %.4g ± %g %% (%s)", tc.s.name, tc.m, got, tc.want, 100*tc.tol, tc.source)
@@ -530,7 +543,7 @@ func gypsumIn(nacl float64) func(x float64) water.Analysis {
 // gives 0.056–0.058 mol/kg. The second is used (0.057); this check is only
 // as good as that memory, and a published table should replace it.
 func TestGypsumInNaCl(t *testing.T) {
-	opt := Options{Activity: Pitzer}
+	opt := Options{} // the automatic model (issue 10)
 	const src = "Marshall & Slusher 1966 [FROM MEMORY]"
 	s0 := solubility(t, "gypsum", opt, gypsumIn(0))
 	if math.Abs(s0/0.0153-1) > tolGypsum {
