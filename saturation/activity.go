@@ -165,7 +165,17 @@ func newDHConstants(t float64) dhConstants {
 	return dhConstants{A: A, B: B, Bdot: BDotParameter(t)}
 }
 
-// logGamma returns log10 γ of a species under model m at ionic strength I.
+// logGamma returns log10 γ of a species under model m at ionic strength I:
+// the value of logGammaDeriv, the one definition of the equations.
+func logGamma(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI float64) float64 {
+	lg, _ := logGammaDeriv(m, p, c, I, sqrtI)
+	return lg
+}
+
+// logGammaDeriv returns log10 γ of a species under model m at ionic strength
+// I and its derivative with respect to I, kg/mol (the solver's Jacobian uses
+// it). Below √I = 1e-10 both are taken at √I = 1e-10, where the derivative
+// of the √I terms is finite.
 //
 // References:
 //
@@ -176,23 +186,6 @@ func newDHConstants(t float64) dhConstants {
 // Neutral species: log γ = 0.1 I in every model. Under Truesdell–Jones an
 // ion without published a and b takes the B-dot form with its Kielland
 // size (or 4 Å).
-func logGamma(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI float64) float64 {
-	if p.neutral {
-		return neutralSaltingOut * I
-	}
-	switch m {
-	case Davies:
-		return -c.A * p.z2 * (sqrtI/(1+sqrtI) - 0.3*I)
-	case TruesdellJones:
-		if p.hasTJ {
-			return -c.A*p.z2*sqrtI/(1+c.B*p.size*sqrtI) + p.tjB*I
-		}
-	}
-	return -c.A*p.z2*sqrtI/(1+c.B*p.size*sqrtI) + c.Bdot*I
-}
-
-// logGammaDeriv returns log10 γ (as logGamma) and its derivative with
-// respect to I, kg/mol.
 func logGammaDeriv(m ActivityModel, p *activityParams, c dhConstants, I, sqrtI float64) (lg, dlg float64) {
 	if p.neutral {
 		return neutralSaltingOut * I, neutralSaltingOut
