@@ -158,7 +158,8 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 	cycKey := ""
 	if c := s.CyclesAnswer; c != nil && finite(c.MaxCycles) && c.Limiting != "" && sw.fromSearch {
 		cyc.Marks = append(cyc.Marks, xMark{dec(c.MaxCycles, 2), "highest cycles " + num(c.MaxCycles, 1)})
-		cycKey = fmt.Sprintf(" Dotted vertical line: the highest cycles, %s.", num(c.MaxCycles, 1))
+		cycKey = fmt.Sprintf(" Dotted vertical line: the highest cycles under %s, %s, set by %s.",
+			profileWords(c.Profile.Name), num(c.MaxCycles, 1), quantityLabel(c.Limiting))
 	}
 	dose := panelChart{ID: id("dose"), XName: "Dose of " + b.reagent.Formula + ", mg/L of product", XMin: 0, XMax: dec(sw.maxDose, 1),
 		Panels: append([]panel{phPanel(sw.dose, 1)}, b.siPanels(sw.dose, sw.minerals, 1)...)}

@@ -138,10 +138,7 @@ func (b *builder) cyclesCaption(s *plan.Sample, sw *sweepSet, forced string) str
 	text := fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s; carbonate system: %s.",
 		num(sw.maxCycles, 1), forced, rule)
 	if c := s.CyclesAnswer; sw.fromSearch && c != nil {
-		if c.Limiting != "" {
-			text += fmt.Sprintf(" The dotted line marks the highest cycles under %s, set by %s.",
-				profileWords(c.Profile.Name), quantityLabel(c.Limiting))
-		} else {
+		if c.Limiting == "" {
 			text += fmt.Sprintf(" No limit of %s is reached in this range.", profileWords(c.Profile.Name))
 		}
 	}

@@ -42,14 +42,15 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 		Short: "Write a self-contained HTML report with charts for a client",
 		Long: "report reads laboratory analyses (wide or long CSV; - for standard input; --demo for the\n" +
 			"embedded demo waters), assesses every sample as assess does, and writes one HTML file that\n" +
-			"opens in any browser with no network: a summary, and for each sample its findings, the\n" +
-			"saturation indices with plain-word risk bands, the classic indices, the scale that could\n" +
-			"form, the dose of --reagent to --target and the highest cycles under --limits, charts of\n" +
-			"the saturation index against temperature (sample to --skin-temperature), cycles of\n" +
-			"concentration and reagent dose, a temperature × cycles map of the limiting mineral and\n" +
-			"the composition, the analysis as entered and as used, the data quality, the methods and\n" +
-			"data sources, and the cautions. Waters sampled on two or more dates get their indices\n" +
-			"over time.\n\n" +
+			"opens in any browser with no network: a summary of every sample, worst first, and for the\n" +
+			"--detail samples of highest risk a section with its findings, the saturation indices\n" +
+			"against their limits (SI, limit, margin, risk band), the dose of --reagent to --target and\n" +
+			"the highest cycles under --limits, charts of the saturation index against temperature\n" +
+			"(sample to --skin-temperature), cycles of concentration and reagent dose, the operating\n" +
+			"window (the margin to the nearest limit over temperature × cycles with each mineral's\n" +
+			"limit curve), the composition, the classic indices, the scale that could form, the\n" +
+			"analysis as entered and as used and the data quality; then the methods and data sources\n" +
+			"and the cautions. Waters sampled on two or more dates get their indices over time.\n\n" +
 			"The file is written whole or not at all (a temporary file, then a rename); -o - writes to\n" +
 			"standard output.\n\n" +
 			"Exit status: 0 all samples computed; 2 bad input (the report is still written with the\n" +
@@ -80,7 +81,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
 	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
 	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
-	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts (0: all); the others are in the summary")
+	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts, those of highest risk first (0: all); every sample is in the summary")
 	f.StringVar(&o.blendWith, "blend-with", "", "CSV file whose first sample is blended with each water (shown in the report)")
 	f.Float64Var(&o.blendFraction, "blend-fraction", 0.5, "share of each sample in the blend with --blend-with, 0–1 by volume")
 	return cmd
