@@ -195,28 +195,30 @@ func (b *builder) intervalChart(id string, s *plan.Sample, a *uncertainty.Summar
 	if len(names) == 0 {
 		return chartView{}, false
 	}
-	const height = 300
+	height := 70 + 30*len(names)
 	box := charts.NewBoxPlot()
 	box.SetGlobalOptions(staticSVG(id, height)...)
 	box.SetGlobalOptions(
-		charts.WithGridOpts(opts.Grid{Left: "56px", Right: "24px", Top: "16px", Bottom: "84px"}),
-		charts.WithYAxisOpts(opts.YAxis{Type: "value", Name: "SI", NameLocation: "middle", NameGap: 36}),
+		charts.WithGridOpts(opts.Grid{Left: "150px", Right: "32px", Top: "12px", Bottom: "58px"}),
+		charts.WithXAxisOpts(opts.XAxis{Type: "value", Name: "saturation index", NameLocation: "middle", NameGap: 28}),
 	)
 	box.Validate()
 	option := box.JSON()
-	// The category axis and the series are written here: go-echarts' box
-	// plot has no field for the dots and the equilibrium line beside it.
-	option["xAxis"] = []any{map[string]any{"type": "category", "data": names, "axisLine": map[string]any{"onZero": false},
-		"axisLabel": map[string]any{"interval": 0, "rotate": 30}}}
+	// Horizontal boxes: the minerals on the category (y) axis. The axis and
+	// the series are written here: go-echarts' box plot has no field for
+	// the dots and the equilibrium line beside it.
+	option["yAxis"] = []any{map[string]any{"type": "category", "data": names, "inverse": true, "axisLine": map[string]any{"onZero": false},
+		"axisLabel": map[string]any{"interval": 0}}}
 	option["series"] = []any{
-		map[string]any{"type": "boxplot", "name": "range", "data": boxes,
+		map[string]any{"type": "boxplot", "name": "range", "data": boxes, "boxWidth": []any{6, 14},
 			"itemStyle": map[string]any{"color": "#e9f2f9", "borderColor": "#0072B2"}},
 		map[string]any{"type": "scatter", "name": "as reported", "data": dotsData(dots),
 			"itemStyle": map[string]any{"color": "#D55E00"}, "symbolSize": 8},
 		map[string]any{"type": "line", "name": "equilibrium", "data": []any{}, "markLine": map[string]any{
 			"silent": true, "symbol": "none", "label": map[string]any{"show": false},
-			"lineStyle": map[string]any{"color": "#555555", "type": "dashed"}, "data": []any{map[string]any{"yAxis": 0}}}},
+			"lineStyle": map[string]any{"color": "#555555", "type": "dashed"}, "data": []any{map[string]any{"xAxis": 0}}}},
 	}
+	option["legend"] = map[string]any{"show": true, "bottom": 0, "itemWidth": 14, "itemHeight": 10}
 	option["tooltip"] = map[string]any{"show": false}
 	option["textStyle"] = map[string]any{"fontFamily": fontFamily}
 	if err := b.addChart(id, option); err != nil {
@@ -227,11 +229,11 @@ func (b *builder) intervalChart(id string, s *plan.Sample, a *uncertainty.Summar
 			"with the median as its line; the dot is the value of the analysis as reported; the dashed line is equilibrium.", 100*a.Confidence)}, true
 }
 
-// dotsData places the dots on the category axis: [column, SI].
+// dotsData places the dots on the category axis: [SI, row].
 func dotsData(dots []float64) [][]any {
 	out := make([][]any, len(dots))
 	for i, d := range dots {
-		out[i] = []any{i, d}
+		out[i] = []any{d, i}
 	}
 	return out
 }
