@@ -184,6 +184,7 @@ func (o *reportOptions) settings(opt saturation.Options, ropt water.ReadOptions,
 	if err != nil {
 		return s, err
 	}
+	mc.Workers = o.common.jobs
 	s.Uncertainty = mc
 	reagent, err := water.LookupReagent(o.reagent)
 	if err != nil {

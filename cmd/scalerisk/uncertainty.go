@@ -44,8 +44,8 @@ func (u *uncertaintyFlags) settings() (s uncertainty.Settings, ok bool, err erro
 	if !(u.percent >= 0 && u.percent < 100) || math.IsInf(u.percent, 0) {
 		return s, false, badInput(fmt.Errorf("--uncertainty %g: want a percentage from 0 to below 100", u.percent))
 	}
-	// One worker per sample: the command's --jobs already runs samples in
-	// parallel.
+	// One worker per sample; the commands set --jobs (the numbers are the
+	// same for any number).
 	s = uncertainty.Settings{Draws: u.draws, Seed: u.seed, Confidence: u.confidence / 100, Relative: u.percent / 100, Workers: 1}
 	if err := s.Check(); err != nil {
 		return s, false, badInput(fmt.Errorf("--draws: %w", err))
@@ -56,6 +56,7 @@ func (u *uncertaintyFlags) settings() (s uncertainty.Settings, ok bool, err erro
 // assessUncertain is assess with --draws: each sample's assessment and its
 // Monte Carlo summary.
 func assessUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, opt saturation.Options, mc uncertainty.Settings) error {
+	mc.Workers = c.jobs // draws of one sample share the workers too
 	w := reports.NewUncertainAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainAssessment]{
 		newWorker: func() func(string, water.Record) (reports.UncertainAssessment, error) {
@@ -86,6 +87,7 @@ type doseQuestion struct {
 // doseUncertain is dose with --draws: each sample's dose and the dose that
 // reaches the target with the run's confidence.
 func doseUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, q doseQuestion, opt saturation.Options, mc uncertainty.Settings) error {
+	mc.Workers = c.jobs // draws of one sample share the workers too
 	w := reports.NewUncertainDoseWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainDose]{
 		newWorker: func() func(string, water.Record) (reports.UncertainDose, error) {
@@ -113,6 +115,7 @@ type cyclesQuestion struct {
 // cyclesUncertain is cycles with --draws: each sample's highest cycles and
 // the highest cycles that hold with the run's confidence.
 func cyclesUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, q cyclesQuestion, opt saturation.Options, mc uncertainty.Settings) error {
+	mc.Workers = c.jobs // draws of one sample share the workers too
 	w := reports.NewUncertainCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainCycles]{
 		newWorker: func() func(string, water.Record) (reports.UncertainCycles, error) {
