@@ -27,6 +27,9 @@ type DoseJSON struct {
 	Target          string   `json:"target"`
 	DoseMgPerL      float64  `json:"dose_mg_per_l"`
 	DoseKgPerDay    *float64 `json:"dose_kg_per_day,omitempty"`
+	// CostPerDay is the product's cost per day at the flow and the price
+	// per kg of product given (currency as the price's).
+	CostPerDay *float64 `json:"cost_per_day,omitempty"`
 	Reached         bool     `json:"reached"`
 	JudgementJSON
 	Before   *SampleJSON `json:"before,omitempty"`
@@ -40,6 +43,7 @@ type DoseOutcome struct {
 	Name   string
 	Result *saturation.DoseResult
 	Flow   float64 // m³/h, 0 when not given
+	Price  float64 // price per kg of product (any currency), 0 when not given
 	Err    error
 }
 
@@ -53,7 +57,7 @@ func NewDoseWriter(w io.Writer, f Format, opt WriteOptions) *SampleWriter[DoseOu
 	return NewSampleWriter(w, f, Layout[DoseOutcome]{
 		JSON: func(d DoseOutcome) any { return doseJSON(d) },
 		Header: []string{"name", "reagent", "strength_percent", "target", "dose_mg_per_l", "dose_kg_per_day", "reached",
-			"ph_before", "ph_after", "lsi_before", "lsi_after", "error", "warnings"},
+			"ph_before", "ph_after", "lsi_before", "lsi_after", "error", "warnings", "cost_per_day"},
 		CSV:     func(d DoseOutcome) [][]string { return [][]string{doseRow(doseJSON(d))} },
 		Text:    writeDoseText,
 		Caution: DoseCaution,
@@ -73,6 +77,9 @@ func doseJSON(d DoseOutcome) DoseJSON {
 	j.DoseMgPerL, j.Reached = sig(r.Dose, 5), r.Reached
 	if d.Flow > 0 {
 		j.DoseKgPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow), func(x float64) float64 { return sig(x, 4) })
+		if d.Price > 0 {
+			j.CostPerDay = optional(saturation.KgPerDay(r.Dose, d.Flow)*d.Price, func(x float64) float64 { return sig(x, 4) })
+		}
 	}
 	j.JudgementJSON = judgementJSON(r.Judged, "dose")
 	before, after := outcomeSample(d.Name, r.Before), outcomeSample(d.Name, r.After)
@@ -90,7 +97,7 @@ func doseRow(j DoseJSON) []string {
 	} else {
 		row = append(row, "", "", "", "")
 	}
-	return append(row, errOf(j.Error), strings.Join(j.Warnings, "; "))
+	return append(row, errOf(j.Error), strings.Join(j.Warnings, "; "), fmtG(j.CostPerDay))
 }
 
 // writeDoseText writes the text block of one dose answer.
@@ -107,6 +114,9 @@ func writeDoseText(b *strings.Builder, d DoseOutcome) {
 		}
 		if d.Flow > 0 {
 			fmt.Fprintf(b, " — %.3g kg/day of product at %g m³/h", saturation.KgPerDay(r.Dose, d.Flow), d.Flow)
+			if d.Price > 0 {
+				fmt.Fprintf(b, ", %.4g a day at %g per kg", saturation.KgPerDay(r.Dose, d.Flow)*d.Price, d.Price)
+			}
 		}
 		b.WriteString(".\n")
 	} else if len(r.Warnings) > 0 {

@@ -2,8 +2,11 @@ package water
 
 import (
 	"fmt"
+	"slices"
+	"strconv"
 	"strings"
 	"sync"
+	"unicode"
 
 	"scalerisk/data"
 )
@@ -15,7 +18,10 @@ import (
 // advisory; acid and caustic handling, feed control and discharge are
 // governed by the product's SDS, local codes and licensed practice.
 type Reagent struct {
-	Name    string // by formula, lower case: "h2so4", "hcl", "naoh", …
+	Name string // by formula, lower case: "h2so4", "hcl", "naoh", …
+	// Aliases are other names a plant writes for it ("sulfuric",
+	// "caustic soda", "soda ash"), lower case.
+	Aliases []string
 	Label   string // in words, e.g. "sulfuric acid"
 	Formula string // e.g. "H2SO4"
 	// MolarMass is g/mol of the pure substance (IUPAC 2021 abridged
@@ -41,6 +47,7 @@ type Reagent struct {
 
 type reagentRow struct {
 	Name        string  `csv:"name"`
+	Aliases     string  `csv:"aliases"`
 	Label       string  `csv:"label"`
 	Formula     string  `csv:"formula"`
 	MolarMass   float64 `csv:"molar_mass"`
@@ -66,10 +73,12 @@ var defaultReagents = sync.OnceValues(func() ([]Reagent, error) {
 		if err != nil {
 			return nil, fmt.Errorf("data/reagents.csv: reagent %q: %w", row.Name, err)
 		}
-		if seen[rg.Name] {
-			return nil, fmt.Errorf("data/reagents.csv: reagent %q listed twice", rg.Name)
+		for _, key := range append([]string{rg.Name}, rg.Aliases...) {
+			if seen[key] {
+				return nil, fmt.Errorf("data/reagents.csv: reagent name %q listed twice", key)
+			}
+			seen[key] = true
 		}
-		seen[rg.Name] = true
 		list = append(list, rg)
 	}
 	return list, nil
@@ -81,6 +90,11 @@ func reagentFromRow(row reagentRow) (Reagent, error) {
 		MolarMass: row.MolarMass, Strength: row.Strength, StrengthMin: row.StrengthMin, StrengthMax: row.StrengthMax,
 		Adds: map[Component]float64{}, AlkalinityPerMol: row.Alkalinity, CarbonPerMol: row.Carbon,
 		Caution: row.Caution, Source: row.Source}
+	for _, a := range strings.Split(row.Aliases, ";") {
+		if a = reagentKey(a); a != "" {
+			rg.Aliases = append(rg.Aliases, a)
+		}
+	}
 	switch {
 	case rg.Name == "":
 		return Reagent{}, fmt.Errorf("empty name")
@@ -127,6 +141,7 @@ func reagentTable() []Reagent {
 // clone returns a copy of r that shares no map with it.
 func (r Reagent) clone() Reagent {
 	c := r
+	c.Aliases = append([]string(nil), r.Aliases...)
 	c.Adds = make(map[Component]float64, len(r.Adds))
 	for k, v := range r.Adds {
 		c.Adds[k] = v
@@ -150,19 +165,43 @@ func Reagents() []Reagent {
 	return out
 }
 
-// LookupReagent returns the reagent named name ("h2so4", "HCl"), matched
-// without regard to case or surrounding spaces. The error for an unknown
-// name lists the known ones.
+// LookupReagent returns the reagent named name, by formula ("h2so4",
+// "HCl", "Ca(OH)2") or by a name a plant writes ("sulfuric", "Caustic soda",
+// "soda ash", "lime"), matched without regard to case, spaces, hyphens or
+// underscores. The error for an unknown name lists the known ones.
 func LookupReagent(name string) (Reagent, error) {
-	key := strings.ToLower(strings.TrimSpace(name))
+	key := reagentKey(name)
 	var names []string
 	for _, r := range reagentTable() {
-		if r.Name == key {
+		if r.Name == key || reagentKey(r.Formula) == key || slices.Contains(r.Aliases, key) {
 			return r.clone(), nil
 		}
-		names = append(names, r.Name)
+		names = append(names, r.Name+" ("+r.Label+")")
 	}
 	return Reagent{}, fmt.Errorf("unknown reagent %q (known: %s)", name, strings.Join(names, ", "))
+}
+
+// reagentKey is name in the form reagent names are compared in: lower
+// case, without spaces, hyphens or underscores.
+func reagentKey(name string) string {
+	return strings.Map(func(r rune) rune {
+		switch r {
+		case ' ', '\t', '-', '_':
+			return -1
+		}
+		return unicode.ToLower(r)
+	}, strings.TrimSpace(name))
+}
+
+// CheckStrength reports whether strength, a product strength in percent
+// w/w as a user gave it, can be used: it must be above 0 and at most 100.
+// A strength outside the usual commercial grades (StrengthMin to
+// StrengthMax) is accepted; callers warn about it.
+func (r Reagent) CheckStrength(strength float64) error {
+	if !(strength > 0 && strength <= 100) {
+		return fmt.Errorf("strength %s %% of %s: want a percentage above 0 and at most 100", strconv.FormatFloat(strength, 'g', 4, 64), r.Label)
+	}
+	return nil
 }
 
 // strengthOrUsual returns strength, or r.Strength when strength is 0.

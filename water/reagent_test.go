@@ -197,3 +197,48 @@ func ExampleReagent_AlkalinityFactor() {
 	// Output:
 	// sulfuric acid 93 %: -0.949 mg/L alkalinity as CaCO3 and +0.911 mg/L SO4 per mg/L
 }
+
+// TestLookupReagentByName: a plant writes reagents by name as often as by
+// formula; each spelling must find the same row (names: common usage of the
+// trade).
+func TestLookupReagentByName(t *testing.T) {
+	cases := []struct{ in, want string }{
+		{"sulfuric", "h2so4"}, {"Sulphuric acid", "h2so4"}, {"H2SO4", "h2so4"},
+		{"hydrochloric", "hcl"}, {"muriatic acid", "hcl"},
+		{"caustic", "naoh"}, {"Caustic Soda", "naoh"}, {"caustic-soda", "naoh"},
+		{"lime", "caoh2"}, {"hydrated lime", "caoh2"}, {"Ca(OH)2", "caoh2"},
+		{"soda ash", "na2co3"}, {"bicarbonate", "nahco3"},
+		{"CO2", "co2"}, {"carbon dioxide", "co2"},
+		{"phosphoric", "h3po4"}, {"calcium chloride", "cacl2"},
+	}
+	for _, c := range cases {
+		r, err := LookupReagent(c.in)
+		if err != nil {
+			t.Errorf("LookupReagent(%q): %v", c.in, err)
+			continue
+		}
+		if r.Name != c.want {
+			t.Errorf("LookupReagent(%q) = %s, want %s", c.in, r.Name, c.want)
+		}
+	}
+	if _, err := LookupReagent("vinegar"); err == nil || !strings.Contains(err.Error(), "sulfuric acid") {
+		t.Errorf("LookupReagent(vinegar) error %v, want the known reagents listed in words", err)
+	}
+}
+
+func TestCheckStrength(t *testing.T) {
+	r, err := LookupReagent("h2so4")
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, s := range []float64{0, -5, 100.5, math.NaN()} {
+		if err := r.CheckStrength(s); err == nil {
+			t.Errorf("CheckStrength(%g) accepted", s)
+		}
+	}
+	for _, s := range []float64{1, 50, 93, 100} {
+		if err := r.CheckStrength(s); err != nil {
+			t.Errorf("CheckStrength(%g): %v", s, err)
+		}
+	}
+}

@@ -17,6 +17,9 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "assess [FILE...|-]",
 		Short: "Data quality, speciation, saturation indices, classic indices and scale that could form",
+		Example: `  scalerisk assess --demo
+  scalerisk assess lab-2026-03.csv --format json > assessed.json
+  scalerisk assess lab-2026-03.csv --temperature 60 --activity pitzer`,
 		Long: "assess reads laboratory analyses (wide or long CSV; - for standard input; --demo for the\n" +
 			"embedded demo waters) and prints, for each sample, the data-quality checks (ion balance,\n" +
 			"TDS, conductivity, ionic strength), the equilibrium pH and ionic strength, the saturation\n" +

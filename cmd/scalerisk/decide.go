@@ -19,10 +19,13 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
 	u := &uncertaintyFlags{}
 	var reagent, target, carbonate string
-	var strength float64
+	var strength, price float64
 	cmd := &cobra.Command{
 		Use:   "dose [FILE...|-] --reagent NAME --target QUANTITY=VALUE",
 		Short: "Dose of a reagent that brings each water to a target, and what it does to every mineral",
+		Example: `  scalerisk dose --demo --reagent sulfuric --target lsi=0.5
+  scalerisk dose makeup.csv --reagent hcl --strength 31 --target ph=7.2 --flow 40
+  scalerisk dose makeup.csv --reagent caustic --target si:calcite=0 --format csv`,
 		Long: "dose finds, for each sample, the dose of a reagent (mg/L of product) that brings a\n" +
 			"quantity to a target — ph=7.0, lsi=0.5, rsi=6, psi=6 or si:calcite=0.8 — and shows what\n" +
 			"the dose does to every other mineral and index: the sulfate of sulfuric acid raises gypsum,\n" +
@@ -37,9 +40,9 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			r, err := water.LookupReagent(reagent)
+			r, err := reagentFlag(cmd, reagent, strength)
 			if err != nil {
-				return badInput(err)
+				return err
 			}
 			tgt, err := saturation.ParseTarget(target, opt.Model)
 			if err != nil {
@@ -53,8 +56,8 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 				return badInput(errors.New("--carbonate for dose: closed or air (natural, relation= and ph= are rules of cycles)"))
 			}
 			opt.Carbonate = rule.Mode
-			if strength != 0 && !(strength > 0 && strength <= 100) {
-				return badInput(fmt.Errorf("--strength %g: want a percentage above 0 and at most 100", strength))
+			if err := checkPrice(price, c.flow); err != nil {
+				return err
 			}
 			mc, withDraws, err := u.settings()
 			if err != nil {
@@ -72,7 +75,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 				newWorker: func() func(string, water.Record) (reports.DoseOutcome, error) {
 					return func(_ string, rec water.Record) (reports.DoseOutcome, error) {
 						d, err := saturation.DoseToTarget(rec.Analysis, r, strength, tgt, opt)
-						return reports.DoseOutcome{Name: rec.Name, Result: d, Flow: c.flow, Err: err}, err
+						return reports.DoseOutcome{Name: rec.Name, Result: d, Flow: c.flow, Price: price, Err: err}, err
 					}
 				},
 			})
@@ -81,8 +84,9 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 	c.register(cmd)
 	u.register(cmd)
 	f := cmd.Flags()
-	f.StringVar(&reagent, "reagent", "", "reagent by formula: "+reagentNames())
+	f.StringVar(&reagent, "reagent", "", "reagent by formula or name: "+reagentNames())
 	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+	f.Float64Var(&price, "price", 0, "price per kg of product (any currency), with --flow, to give the cost per day")
 	f.StringVar(&target, "target", "", "target: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE or si:MINERAL=VALUE")
 	f.StringVar(&carbonate, "carbonate", "closed", "carbonate system after dosing: closed (the CO2 an acid frees stays) or air")
 	c.registerSkin(cmd, reports.DefaultSkinTemperature)
@@ -91,13 +95,44 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 	return cmd
 }
 
-// reagentNames lists the reagent table's names.
+// reagentNames lists the reagent table's names: each formula with its
+// name in words.
 func reagentNames() string {
 	var names []string
 	for _, r := range water.Reagents() {
-		names = append(names, r.Name)
+		names = append(names, r.Name+" ("+r.Label+")")
 	}
 	return strings.Join(names, ", ")
+}
+
+// checkPrice checks --price: a finite positive price per kg of product,
+// which needs --flow to become a cost per day.
+func checkPrice(price, flow float64) error {
+	switch {
+	case price == 0:
+		return nil
+	case !(price > 0) || math.IsInf(price, 1):
+		return badInput(fmt.Errorf("--price %g: want a positive price per kg of product", price))
+	case !(flow > 0):
+		return badInput(errors.New("--price needs --flow (m³/h) to give a cost per day"))
+	}
+	return nil
+}
+
+// reagentFlag looks up the reagent a user named (by formula or by name)
+// and, when --strength was given, checks it: an explicit 0 or a value
+// above 100 % is bad input, never a silent fallback to the usual strength.
+func reagentFlag(cmd *cobra.Command, name string, strength float64) (water.Reagent, error) {
+	r, err := water.LookupReagent(name)
+	if err != nil {
+		return r, badInput(fmt.Errorf("--reagent: %w", err))
+	}
+	if f := cmd.Flags().Lookup("strength"); f != nil && f.Changed {
+		if err := r.CheckStrength(strength); err != nil {
+			return r, badInput(fmt.Errorf("--strength: %w", err))
+		}
+	}
+	return r, nil
 }
 
 func newCyclesCmd(stdin io.Reader) *cobra.Command {
@@ -108,6 +143,9 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate closed|air|ph=V|natural|relation=A,B]",
 		Short: "Highest cycles of concentration of a makeup water under a limit profile, and the limiting mineral",
+		Example: `  scalerisk cycles --demo
+  scalerisk cycles makeup.csv --limits inhibitor --skin-temperature 65
+  scalerisk cycles makeup.csv --carbonate ph=7.8 --reagent sulfuric --evaporation 12`,
 		Long: "cycles concentrates each makeup water by 1 to --max cycles (conservative ions times N),\n" +
 			"finds its carbonate state by --carbonate — natural (the default: pH = 1.465·log10(TA) + 4.54,\n" +
 			"the relation of untreated towers, alkalinity conserved; common practice), relation=A,B (your\n" +
@@ -215,6 +253,9 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "sweep [FILE...|-] --vary NAME=FROM:TO:N [--vary NAME=FROM:TO:N]",
 		Short: "Every saturation index and index of each water over a range of temperature, cycles, dose or blend",
+		Example: `  scalerisk sweep --demo --vary temperature=10:80:8
+  scalerisk sweep makeup.csv --vary cycles=1:6:11 --format csv
+  scalerisk sweep makeup.csv --vary dose=0:200:9 --reagent sulfuric --vary temperature=20:70:6`,
 		Long: "sweep varies one or two of temperature (°C; the water re-speciated at each, closed carbonate\n" +
 			"system), cycles (concentration), dose (mg/L of --reagent) and fraction (share of the water in\n" +
 			"a blend with the first sample of --partner FILE), each as NAME=FROM:TO:N (N values), and\n" +
@@ -225,7 +266,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			x, y, err := sf.axes(stdin, ropt, &opt)
+			x, y, err := sf.axes(cmd, stdin, ropt, &opt)
 			if err != nil {
 				return err
 			}
@@ -247,7 +288,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	c.register(cmd)
 	f := cmd.Flags()
 	f.StringArrayVar(&sf.vary, "vary", nil, "variable and range: temperature|cycles|dose|fraction=FROM:TO:N (once or twice)")
-	f.StringVar(&sf.reagent, "reagent", "", "reagent for --vary dose: "+reagentNames())
+	f.StringVar(&sf.reagent, "reagent", "", "reagent for --vary dose, by formula or name: "+reagentNames())
 	f.Float64Var(&sf.strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&sf.partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
 	f.StringVar(&sf.carbonate, "carbonate", "closed", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or ph=VALUE (acid control), as in cycles")
@@ -256,7 +297,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 
 // axes turns the flags into the swept axes, x and y (nil for one --vary),
 // and sets the carbonate mode of opt; a bad flag is a bad-input error.
-func (sf *sweepFlags) axes(stdin io.Reader, ropt water.ReadOptions, opt *saturation.Options) (saturation.Axis, *saturation.Axis, error) {
+func (sf *sweepFlags) axes(cmd *cobra.Command, stdin io.Reader, ropt water.ReadOptions, opt *saturation.Options) (saturation.Axis, *saturation.Axis, error) {
 	if len(sf.vary) == 0 || len(sf.vary) > 2 {
 		return saturation.Axis{}, nil, badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
 	}
@@ -275,9 +316,12 @@ func (sf *sweepFlags) axes(stdin io.Reader, ropt water.ReadOptions, opt *saturat
 		}
 		switch axes[i].Var {
 		case saturation.VaryDose:
-			r, err := water.LookupReagent(sf.reagent)
+			if sf.reagent == "" {
+				return saturation.Axis{}, nil, badInput(errors.New("--vary dose needs --reagent"))
+			}
+			r, err := reagentFlag(cmd, sf.reagent, sf.strength)
 			if err != nil {
-				return saturation.Axis{}, nil, badInput(fmt.Errorf("--vary dose needs --reagent: %w", err))
+				return saturation.Axis{}, nil, err
 			}
 			axes[i].Reagent, axes[i].Strength = r, sf.strength
 		case saturation.VaryFraction:
@@ -378,6 +422,8 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "blend A.csv B.csv|--demo --fraction F [--sample NAME_A] [--sample NAME_B]",
 		Short: "Mix two waters and assess the blend (computed from totals and re-speciated)",
+		Example: `  scalerisk blend --demo --fraction 0.3
+  scalerisk blend well.csv river.csv --fraction 0.4 --sample "North well" --sample "River intake"`,
 		Long: "blend mixes the first sample of A.csv (or --sample NAME) with the first sample of B.csv\n" +
 			"(or a second --sample NAME) by volume, F being the share of the first water, and assesses\n" +
 			"the blend like assess. With one input (a file or --demo) the two waters are its first two\n" +

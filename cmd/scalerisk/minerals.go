@@ -17,6 +17,8 @@ func newMineralsCmd() *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "minerals",
 		Short: "List the minerals of the thermodynamic table with log K at 25 °C and sources",
+		Example: `  scalerisk minerals
+  scalerisk minerals --thermo site-constants.csv`,
 		Long: "minerals lists every mineral of the thermodynamic table (data/thermo.csv, or with\n" +
 			"--thermo your additions) with its formula, reaction, log K at 25 °C, temperature function,\n" +
 			"valid range and published source.\n\n" + reports.Caution,

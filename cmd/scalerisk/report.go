@@ -40,6 +40,8 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "report [FILE...|-] [--demo] -o report.html",
 		Short: "Write a self-contained HTML report with charts for a client",
+		Example: `  scalerisk report --demo -o demo-report.html
+  scalerisk report lab-2026-03.csv --skin-temperature 70 --limits inhibitor -o march.html`,
 		Long: "report reads laboratory analyses (wide or long CSV; - for standard input; --demo for the\n" +
 			"embedded demo waters), assesses every sample as assess does, and writes one HTML file that\n" +
 			"opens in any browser with no network: a summary of every sample, worst first, and for the\n" +
@@ -75,7 +77,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&o.date, "date", "", "date shown on the report (default today; --date none leaves it out)")
 	o.common.registerSkin(cmd, reports.DefaultSkinTemperature) // also the end of the temperature axis
 	f.Float64Var(&o.maxCycles, "max-cycles", reports.DefaultMaxCycles, "end of the cycles axis and of the highest-cycles search")
-	f.StringVar(&o.reagent, "reagent", reports.DefaultReagent, "reagent of the dose chart and the dose to target, by formula: "+reagentNames())
+	f.StringVar(&o.reagent, "reagent", reports.DefaultReagent, "reagent of the dose chart and the dose to target, by formula or name: "+reagentNames())
 	f.Float64Var(&o.strength, "strength", 0, "strength of the reagent product, percent (default: the reagent table's usual strength)")
 	f.Float64Var(&o.maxDose, "max-dose", 0, "end of the dose axis, mg/L of product (default: 80 % of the alkalinity neutralised)")
 	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
@@ -101,7 +103,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output == "" {
 		return badInput(errors.New("no output file: give -o report.html (or -o - for standard output)"))
 	}
-	settings, err := o.settings(opt, ropt, stdin)
+	settings, err := o.settings(cmd, opt, ropt, stdin)
 	if err != nil {
 		return err
 	}
@@ -177,7 +179,7 @@ func reportDate(d string) string {
 
 // settings turns the flags of report into what the plan of every sample
 // computes.
-func (o *reportOptions) settings(opt saturation.Options, ropt water.ReadOptions, stdin io.Reader) (plan.Settings, error) {
+func (o *reportOptions) settings(cmd *cobra.Command, opt saturation.Options, ropt water.ReadOptions, stdin io.Reader) (plan.Settings, error) {
 	s := plan.Settings{Speciation: opt, SkinTemperature: o.common.skin, MaxCycles: o.maxCycles,
 		Strength: o.strength, MaxDose: o.maxDose}
 	mc, _, err := o.uncertainty.settings()
@@ -186,9 +188,9 @@ func (o *reportOptions) settings(opt saturation.Options, ropt water.ReadOptions,
 	}
 	mc.Workers = o.common.jobs
 	s.Uncertainty = mc
-	reagent, err := water.LookupReagent(o.reagent)
+	reagent, err := reagentFlag(cmd, o.reagent, o.strength)
 	if err != nil {
-		return s, badInput(err)
+		return s, err
 	}
 	s.Reagent = reagent
 	if o.target != "none" {

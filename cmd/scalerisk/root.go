@@ -45,8 +45,10 @@ func newRootCmd(stdin io.Reader) *cobra.Command {
 		SilenceUsage:  true,
 		SilenceErrors: true,
 	}
-	root.CompletionOptions.DisableDefaultCmd = true
-	root.AddCommand(newAssessCmd(stdin), newMineralsCmd(), newReportCmd(stdin))
+	root.Version = version()
+	root.SuggestionsMinimumDistance = 2
+	root.SetFlagErrorFunc(suggestFlag)
+	root.AddCommand(newAssessCmd(stdin), newMineralsCmd(), newReportCmd(stdin), newTemplateCmd())
 	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin))
 	return root
 }
