@@ -151,28 +151,8 @@ func (pc panelChart) option() (map[string]any, error) {
 			Top:    fmt.Sprintf("%dpx", top),
 			Height: fmt.Sprintf("%dpx", panelRowHeight-panelTitleGap-panelBottomGap),
 		})
-		titles = append(titles, map[string]any{
-			"text": p.Title, "left": pct(float64(col)*colWidth + 1.5), "top": row*panelRowHeight + 6,
-			"textStyle": map[string]any{"fontSize": 13, "fontWeight": 600, "color": "#1b2733", "fontFamily": fontFamily},
-		})
-		xa := opts.XAxis{
-			Type: "value", GridIndex: i, Name: pc.XName, NameLocation: "middle", NameGap: 26, SplitNumber: 4,
-			AxisLabel: &opts.AxisLabel{Show: opts.Bool(true), HideOverlap: opts.Bool(true)},
-			SplitLine: &opts.SplitLine{Show: opts.Bool(false)},
-		}
-		if pc.Time {
-			// The first date is a data point, not a round date: its label
-			// would crowd the first month.
-			xa.Type = "time"
-			xa.AxisLabel.ShowMinLabel = opts.Bool(false)
-		}
-		if finite(pc.XMin) {
-			xa.Min = pc.XMin
-		}
-		if finite(pc.XMax) {
-			xa.Max = pc.XMax
-		}
-		xAxes = append(xAxes, xa)
+		titles = append(titles, panelTitle(p.Title, pct(float64(col)*colWidth+1.5), row*panelRowHeight+6))
+		xAxes = append(xAxes, pc.xAxis(i))
 		lo, hi, step, err := p.yRange()
 		if err != nil {
 			return nil, fmt.Errorf("chart %s, panel %q: %w", pc.ID, p.Title, err)
@@ -228,6 +208,34 @@ func (pc panelChart) option() (map[string]any, error) {
 		option["useUTC"] = true
 	}
 	return option, nil
+}
+
+// panelTitle is the title of a panel at left, top.
+func panelTitle(text, left string, top int) map[string]any {
+	return map[string]any{"text": text, "left": left, "top": top,
+		"textStyle": map[string]any{"fontSize": 13, "fontWeight": 600, "color": "#1b2733", "fontFamily": fontFamily}}
+}
+
+// xAxis is the x axis of panel i.
+func (pc panelChart) xAxis(i int) opts.XAxis {
+	xa := opts.XAxis{
+		Type: "value", GridIndex: i, Name: pc.XName, NameLocation: "middle", NameGap: 26, SplitNumber: 4,
+		AxisLabel: &opts.AxisLabel{Show: opts.Bool(true), HideOverlap: opts.Bool(true)},
+		SplitLine: &opts.SplitLine{Show: opts.Bool(false)},
+	}
+	if pc.Time {
+		// The first date is a data point, not a round date: its label
+		// would crowd the first month.
+		xa.Type = "time"
+		xa.AxisLabel.ShowMinLabel = opts.Bool(false)
+	}
+	if finite(pc.XMin) {
+		xa.Min = pc.XMin
+	}
+	if finite(pc.XMax) {
+		xa.Max = pc.XMax
+	}
+	return xa
 }
 
 // markLines are the equilibrium and inhibitor-limit lines of a panel and

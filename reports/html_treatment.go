@@ -114,100 +114,116 @@ func (b *builder) treatment(s *plan.Sample) *treatmentView {
 		}
 	}
 	if d := s.DoseAnswer; d != nil {
-		tv.Dose = []kv{
-			{"Reagent", d.Reagent.Label + " (" + d.Reagent.Formula + "), product of " + num(d.Strength, 0) + " %", ""},
-			{"Target", targetLabel(d.Target), ""},
-		}
-		switch {
-		case d.Reached && d.Dose > 0:
-			tv.Dose = append(tv.Dose, kv{"Dose", num(d.Dose, 1), "mg/L of product"})
-		case d.Reached:
-			tv.NoDose = noDoseSentence(d)
-			tv.Dose = nil
-		default:
-			tv.Dose = append(tv.Dose, kv{"Dose", "not reached: see the note below", ""})
-		}
-		if tv.Dose != nil && s.Flow > 0 && d.Reached {
-			tv.Dose = append(tv.Dose, kv{"At the flow given", sigText(saturation.KgPerDay(d.Dose, s.Flow), 3), "kg/day of product"})
-		}
-		if tv.Dose != nil && d.Before.Result != nil && d.After.Result != nil {
-			tv.Dose = append(tv.Dose, kv{"pH", num(d.Before.Result.PH, 2) + " → " + num(d.After.Result.PH, 2), ""},
-				kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2), ""})
-			for _, m := range d.After.Result.Minerals {
-				before, ok := d.Before.Result.SI(m.Name)
-				if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !b.scaleFormer(m.Name, m.SI) {
-					continue
-				}
-				tv.Effects = append(tv.Effects, effectRow{Mineral: mineralLabel(m.Name), Before: signed(before, 2),
-					After: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
-			}
-		}
-		// The reagent's caution is shown in its own box below.
-		for _, w := range d.Warnings {
-			// The side effects are in the table above, in the report's bands.
-			if c := strings.TrimSpace(d.Reagent.Caution); (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") {
-				tv.DoseWarnings = append(tv.DoseWarnings, clientText(w))
-			}
-		}
-		if tv.Dose != nil {
-			tv.Caution = b.reagentCaution(d.Reagent)
-		}
+		b.doseView(tv, s, d)
 	}
 	if c := s.CyclesAnswer; c != nil {
-		highest, limiting := num(c.MaxCycles, 2), "none within the range searched"
-		var exceeded []string
-		for _, q := range c.Exceeded {
-			exceeded = append(exceeded, quantityLabel(q))
-		}
-		switch {
-		case len(exceeded) > 0:
-			highest, limiting = "none: the water is already past a limit", strings.Join(exceeded, ", ")
-		case c.Limiting != "":
-			limiting = quantityLabel(c.Limiting)
-		}
-		tv.Cycles = []kv{
-			{"Highest cycles of concentration (this water as makeup)", highest, ""},
-			{"Limited by", limiting, ""},
-			{"Limits used", profileWords(c.Profile.Name), ""},
-			{"Carbonate system", ruleWords(b.o.Plan.Rule()), ""},
-		}
-		for _, l := range c.Profile.Limits {
-			if l.Quantity == c.Limiting {
-				tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s at most %g", quantityLabel(l.Quantity), l.Max), ""},
-					kv{"Basis of the limit", provenanceWords(l.Source), ""})
-			}
-		}
-		if len(exceeded) > 0 {
-			tv.CycleNotes = append(tv.CycleNotes, "Used as a makeup, this water is already past the limits for "+
-				strings.Join(exceeded, ", ")+": it needs treatment before it is concentrated.")
-		}
-		for _, w := range c.Warnings {
-			if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {
-				continue // said above in words
-			}
-			tv.CycleNotes = append(tv.CycleNotes, clientText(w))
-		}
+		b.cyclesView(tv, c)
 	}
 	for _, bl := range s.Blends {
-		bv := blendView{Title: fmt.Sprintf("%s %% of this water with %s %% of %s", num(100*bl.Fraction, 0),
-			num(100*(1-bl.Fraction), 0), bl.Partner)}
-		if bl.Result != nil {
-			ms := slices.Clone(bl.Result.Minerals)
-			slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
-			for _, m := range ms {
-				if !finite(m.SI) || !b.scaleFormer(m.Name, m.SI) || len(bv.Minerals) >= 6 {
-					continue
-				}
-				bv.Minerals = append(bv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
-					SI: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
-			}
-		}
-		tv.Blends = append(tv.Blends, bv)
+		tv.Blends = append(tv.Blends, b.blendView(bl))
 	}
 	if tv.Dose == nil && tv.Cycles == nil && tv.Blends == nil && tv.Notes == nil {
 		return nil
 	}
 	return tv
+}
+
+// doseView lays out the dose to the target: the dose, or the sentence that
+// none is needed, its effects and its notes.
+func (b *builder) doseView(tv *treatmentView, s *plan.Sample, d *saturation.DoseResult) {
+	tv.Dose = []kv{
+		{"Reagent", d.Reagent.Label + " (" + d.Reagent.Formula + "), product of " + num(d.Strength, 0) + " %", ""},
+		{"Target", targetLabel(d.Target), ""},
+	}
+	switch {
+	case d.Reached && d.Dose > 0:
+		tv.Dose = append(tv.Dose, kv{"Dose", num(d.Dose, 1), "mg/L of product"})
+	case d.Reached:
+		tv.NoDose = noDoseSentence(d)
+		tv.Dose = nil
+	default:
+		tv.Dose = append(tv.Dose, kv{"Dose", "not reached: see the note below", ""})
+	}
+	if tv.Dose != nil && s.Flow > 0 && d.Reached {
+		tv.Dose = append(tv.Dose, kv{"At the flow given", sigText(saturation.KgPerDay(d.Dose, s.Flow), 3), "kg/day of product"})
+	}
+	if tv.Dose != nil && d.Before.Result != nil && d.After.Result != nil {
+		tv.Dose = append(tv.Dose, kv{"pH", num(d.Before.Result.PH, 2) + " → " + num(d.After.Result.PH, 2), ""},
+			kv{"Langelier index", signed(d.Before.Indices.LSI, 2) + " → " + signed(d.After.Indices.LSI, 2), ""})
+		for _, m := range d.After.Result.Minerals {
+			before, ok := d.Before.Result.SI(m.Name)
+			if !ok || !finite(m.SI) || !finite(before) || m.SI <= before+0.005 || !b.scaleFormer(m.Name, m.SI) {
+				continue
+			}
+			tv.Effects = append(tv.Effects, effectRow{Mineral: mineralLabel(m.Name), Before: signed(before, 2),
+				After: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
+		}
+	}
+	// The reagent's caution is shown in its own box below.
+	for _, w := range d.Warnings {
+		// The side effects are in the table above, in the report's bands.
+		if c := strings.TrimSpace(d.Reagent.Caution); (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") {
+			tv.DoseWarnings = append(tv.DoseWarnings, clientText(w))
+		}
+	}
+	if tv.Dose != nil {
+		tv.Caution = b.reagentCaution(d.Reagent)
+	}
+}
+
+// cyclesView lays out the highest cycles of concentration.
+func (b *builder) cyclesView(tv *treatmentView, c *saturation.CyclesResult) {
+	highest, limiting := num(c.MaxCycles, 2), "none within the range searched"
+	var exceeded []string
+	for _, q := range c.Exceeded {
+		exceeded = append(exceeded, quantityLabel(q))
+	}
+	switch {
+	case len(exceeded) > 0:
+		highest, limiting = "none: the water is already past a limit", strings.Join(exceeded, ", ")
+	case c.Limiting != "":
+		limiting = quantityLabel(c.Limiting)
+	}
+	tv.Cycles = []kv{
+		{"Highest cycles of concentration (this water as makeup)", highest, ""},
+		{"Limited by", limiting, ""},
+		{"Limits used", profileWords(c.Profile.Name), ""},
+		{"Carbonate system", ruleWords(b.o.Plan.Rule()), ""},
+	}
+	for _, l := range c.Profile.Limits {
+		if l.Quantity == c.Limiting {
+			tv.Cycles = append(tv.Cycles, kv{"Limit", fmt.Sprintf("%s at most %g", quantityLabel(l.Quantity), l.Max), ""},
+				kv{"Basis of the limit", provenanceWords(l.Source), ""})
+		}
+	}
+	if len(exceeded) > 0 {
+		tv.CycleNotes = append(tv.CycleNotes, "Used as a makeup, this water is already past the limits for "+
+			strings.Join(exceeded, ", ")+": it needs treatment before it is concentrated.")
+	}
+	for _, w := range c.Warnings {
+		if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {
+			continue // said above in words
+		}
+		tv.CycleNotes = append(tv.CycleNotes, clientText(w))
+	}
+}
+
+// blendView lays out a blend with its six scale formers most supersaturated.
+func (b *builder) blendView(bl plan.Blend) blendView {
+	bv := blendView{Title: fmt.Sprintf("%s %% of this water with %s %% of %s", num(100*bl.Fraction, 0),
+		num(100*(1-bl.Fraction), 0), bl.Partner)}
+	if bl.Result != nil {
+		ms := slices.Clone(bl.Result.Minerals)
+		slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
+		for _, m := range ms {
+			if !finite(m.SI) || !b.scaleFormer(m.Name, m.SI) || len(bv.Minerals) >= 6 {
+				continue
+			}
+			bv.Minerals = append(bv.Minerals, mineralRow{Name: mineralLabel(m.Name), Formula: m.Formula,
+				SI: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
+		}
+	}
+	return bv
 }
 
 // searchFailure words a treatment search that could not be computed.

@@ -1,0 +1,62 @@
+package reports_test
+
+import (
+	"bytes"
+	"fmt"
+	"regexp"
+	"strings"
+	"testing"
+
+	"scalerisk/plan"
+	"scalerisk/reports"
+	"scalerisk/saturation"
+)
+
+// TestHTMLManySamples: a 200-sample report stays readable: every sample has
+// a summary row (worst first, with its date), only the Detail samples of
+// highest risk get a section, and the page says so. The plans carry their
+// ranking only (no sweeps), which is all the summary needs.
+func TestHTMLManySamples(t *testing.T) {
+	as := demoAssessments(t)
+	hw, err := reports.NewHTMLWriter(reports.Report{Options: reports.HTMLOptions{Detail: 5}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range 200 {
+		a := as[i%len(as)]
+		a.Name = fmt.Sprintf("invented water %03d", i+1)
+		a.Input.Date = fmt.Sprintf("2026-%02d-%02d", 1+i%12, 1+i%28)
+		p := &plan.Sample{Assessment: a, Ranking: saturation.Rank(a.Result, nil)}
+		if err := hw.Add(p); err != nil {
+			t.Fatal(err)
+		}
+	}
+	var buf bytes.Buffer
+	if err := hw.Finish(&buf); err != nil {
+		t.Fatal(err)
+	}
+	page := buf.String()
+	if n := strings.Count(page, `<section class="sample"`); n != 5 {
+		t.Errorf("%d sections, want 5", n)
+	}
+	rows := regexp.MustCompile(`(?s)<table class="overview">.*?</table>`).FindString(page)
+	if n := strings.Count(rows, "<tr>") - 1; n != 200 {
+		t.Errorf("%d summary rows, want 200", n)
+	}
+	if !strings.Contains(page, "Full sections follow for the 5 samples of highest risk; the other 195 samples are in this table only.") {
+		t.Error("the page does not say which samples have a section")
+	}
+	// Worst first: the first rows are the tower water (past a limit), the
+	// last the makeup water (near equilibrium).
+	first := strings.Index(rows, "beyond inhibitor reach")
+	last := strings.LastIndex(rows, "beyond inhibitor reach")
+	near := strings.Index(rows, "near equilibrium")
+	if first < 0 || near < last {
+		t.Error("the summary is not worst first")
+	}
+	// The contents name each section with its date.
+	toc := regexp.MustCompile(`(?s)<nav class="toc".*?</nav>`).FindString(page)
+	if n := len(regexp.MustCompile(`invented water \d+</a> <span class="muted">· 2026-\d\d-\d\d</span>`).FindAllString(toc, -1)); n != 5 {
+		t.Errorf("%d contents entries with a date, want 5", n)
+	}
+}
