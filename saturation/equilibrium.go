@@ -47,6 +47,7 @@ func (s *solver) solveEquilibrium(p problem, minerals []int, x []float64) error 
 	if len(minerals) > maxEquilibria {
 		return errEquilibriumTooMany
 	}
+	s.growForEquilibria()
 	s.eq = s.eq[:0]
 	for _, i := range minerals {
 		e := eqMineral{i: i}
@@ -71,6 +72,20 @@ func (s *solver) solveEquilibrium(p problem, minerals []int, x []float64) error 
 	}
 	s.eq, s.tol = s.eq[:0], tolerance
 	return err
+}
+
+// growForEquilibria makes the work arrays room for the amounts of an
+// equilibrium solve, once per solver (an ordinary speciation never needs
+// them).
+func (s *solver) growForEquilibria() {
+	n := s.nm + 2 + maxEquilibria
+	if len(s.resid) >= n {
+		return
+	}
+	s.scale, s.jacobian = make([]float64, n), make([]float64, n*n)
+	s.resid, s.dx, s.save = make([]float64, n), make([]float64, n), make([]float64, n)
+	s.ipiv = make([]int, n)
+	s.eq, s.eqX = make([]eqMineral, 0, maxEquilibria), make([]float64, maxEquilibria)
 }
 
 // equilibriumRows adds to R (and J) what the amounts s.eqX of the minerals

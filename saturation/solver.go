@@ -141,8 +141,8 @@ const tolerance = 1e-12
 // newSolver returns a solver for m.
 func newSolver(m *Model) *solver {
 	nm, ns := len(m.masters), len(m.species)
-	n := nm + 2 + maxEquilibria
-	if n > maxUnknowns {
+	n := nm + 2 // grown for the amounts of an equilibrium solve on its first use
+	if n+maxEquilibria > maxUnknowns {
 		panic(fmt.Sprintf("saturation: %d masters are more than the solver holds", nm))
 	}
 	other := tempCache{lnK: make([]float64, ns), mineralLogK: make([]float64, len(m.minerals)),
@@ -155,7 +155,7 @@ func newSolver(m *Model) *solver {
 		vars: make([]int, 0, n), rows: make([]rowKind, 0, n), rowOf: make([]int, nm),
 		scale: make([]float64, n), jacobian: make([]float64, n*n), resid: make([]float64, n),
 		dx: make([]float64, n), save: make([]float64, n), ipiv: make([]int, n), prevV: make([]int, 0, n),
-		eq: make([]eqMineral, 0, maxEquilibria), eqX: make([]float64, maxEquilibria), tol: tolerance}
+		tol: tolerance}
 }
 
 func (s *solver) setTemperature(t float64) {
