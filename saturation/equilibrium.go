@@ -25,6 +25,12 @@ type eqMineral struct {
 // four significant figures (and 0.1 mg/L of the CCPP) that are printed.
 const eqTolerance = 1e-9
 
+// eqPitzerTolerance is the largest change of the Pitzer activity
+// coefficients' specific-interaction part (ln γ) between the last two
+// refreshes of a converged equilibrium solve: 1e-9, in step with
+// eqTolerance.
+const eqPitzerTolerance = 1e-9
+
 // errEquilibriumTooMany reports an equilibrium solve over more minerals than
 // the solver holds room for.
 var errEquilibriumTooMany = errors.New("too many minerals for one equilibrium solve")

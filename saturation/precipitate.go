@@ -103,13 +103,7 @@ func (sr *search) reset() {
 func (sr *search) siAfter(idx []int, x, si []float64) error {
 	s := sr.s
 	sr.reset()
-	for k, i := range idx {
-		for _, nt := range s.m.minerals[i].nu {
-			sr.p.totals[nt.j] -= x[k] * nt.coef
-			sr.p.alk -= x[k] * nt.coef * s.m.species[nt.j].alk
-		}
-	}
-	sr.p.totals[0] = 0
+	sr.remove(idx, x)
 	if err := s.solve(sr.p, true); err != nil {
 		return err
 	}
@@ -138,18 +132,40 @@ func (sr *search) maxRemovable(i int) float64 {
 
 // toEquilibrium returns x, mol/kg of water, of mineral i (saturation index
 // si0 in the water) that must precipitate (x > 0) or dissolve (x < 0) for
-// the water to reach saturation with it, closed system.
-func (sr *search) toEquilibrium(i int, si0 float64) (float64, error) {
+// the water to reach saturation with it, closed system. x0 is where the
+// equilibrium solve starts: 0, or the amount of a mineral of the same
+// composition that the solver has just brought to saturation (its state
+// then differs from the answer by the two minerals' log K only).
+func (sr *search) toEquilibrium(i int, si0, x0 float64) (float64, error) {
 	if si0 == 0 {
 		return 0, nil
 	}
 	sr.reset()
 	idx := [1]int{i}
 	x := sr.x[:1]
-	if err := sr.s.solveEquilibrium(sr.p, idx[:], x); err == nil && (x[0] > 0) == (si0 > 0) && x[0] < sr.maxRemovable(i) {
-		return x[0], nil
+	if x0 != 0 {
+		x[0] = x0
+		sr.remove(idx[:], x)
+	}
+	if err := sr.s.solveEquilibrium(sr.p, idx[:], x); err == nil {
+		x[0] += x0
+		if (x[0] > 0) == (si0 > 0) && x[0] < sr.maxRemovable(i) {
+			return x[0], nil
+		}
 	}
 	return sr.bracketed(i, si0)
+}
+
+// remove takes amounts x of minerals idx out of the search's problem.
+func (sr *search) remove(idx []int, x []float64) {
+	m := sr.s.m
+	for k, i := range idx {
+		for _, nt := range m.minerals[i].nu {
+			sr.p.totals[nt.j] -= x[k] * nt.coef
+			sr.p.alk -= x[k] * nt.coef * m.species[nt.j].alk
+		}
+	}
+	sr.p.totals[0] = 0
 }
 
 // bracketed is toEquilibrium by Brent's method on the saturation index.
@@ -194,30 +210,55 @@ func (sp *Speciator) mineralToEquilibrium(r *Result, name string) (float64, erro
 	if c := sp.lastSearch; c.r == r && c.name == name {
 		return c.x, c.err
 	}
-	si0, ok := r.SI(name)
-	if !ok {
+	if _, ok := r.SI(name); !ok {
 		return 0, fmt.Errorf("%s has no saturation index in this water", name)
 	}
 	sr, err := sp.newSearch(r)
 	if err != nil {
 		return 0, err
 	}
+	return sp.alone(sr, r, name)
+}
+
+// alone returns the amount of mineral name that precipitates alone from the
+// water of r by search sr (or dissolves, for a negative answer), reusing
+// the last answer for the same question (the CCPP and calcite alone ask
+// one), and starting from the last answer for a mineral of the same
+// composition while the solver still holds it (calcite, aragonite,
+// vaterite in turn).
+func (sp *Speciator) alone(sr *search, r *Result, name string) (float64, error) {
+	c := sp.lastSearch
+	if c.r == r && c.name == name {
+		return c.x, c.err
+	}
+	si0, ok := r.SI(name)
+	if !ok {
+		return 0, fmt.Errorf("%s has no saturation index in this water", name)
+	}
 	i, err := sr.mineral(name)
 	if err != nil {
 		return 0, err
 	}
-	x, err := sr.toEquilibrium(i, si0)
-	sp.lastSearch = searchMemo{r: r, name: name, x: x, err: err}
+	x0 := 0.0
+	if c.r == r && c.err == nil && c.solver == sr.s && c.solves == sr.s.solves &&
+		slices.Equal(sr.s.m.minerals[c.i].nu, sr.s.m.minerals[i].nu) {
+		x0 = c.x
+	}
+	x, err := sr.toEquilibrium(i, si0, x0)
+	sp.lastSearch = searchMemo{r: r, name: name, i: i, x: x, err: err, solver: sr.s, solves: sr.s.solves}
 	return x, err
 }
 
-// searchMemo is the last mineralToEquilibrium answer: the CCPP and the
-// precipitation of calcite alone ask the same question of one result.
+// searchMemo is the last answer of alone, and the solver state it left
+// (solver and its count of solves).
 type searchMemo struct {
-	r    *Result
-	name string
-	x    float64
-	err  error
+	r      *Result
+	name   string
+	i      int // the mineral in the solver's model
+	x      float64
+	err    error
+	solver *solver
+	solves int
 }
 
 // PrecipitationPotential returns, for every supersaturated mineral of r
@@ -246,7 +287,7 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 		p := Precipitation{Mineral: mr.Name, SI: mr.SI, Alone: math.NaN(), Together: math.NaN()}
 		x := math.NaN()
 		if err == nil {
-			x, err = sp.alone(sr, r, mr.Name, mr.SI)
+			x, err = sp.alone(sr, r, mr.Name)
 		}
 		mass, merr := water.FormulaMass(m.minerals[i].formula)
 		switch {
@@ -292,37 +333,23 @@ func (sp *Speciator) PrecipitationPotential(r *Result, opt Options) ([]Precipita
 	return out, warnings
 }
 
-// alone returns the amount of mineral name (saturation index si0 in the
-// water of r) that precipitates alone, by search sr, or the CCPP's answer
-// for the same question.
-func (sp *Speciator) alone(sr *search, r *Result, name string, si0 float64) (float64, error) {
-	if c := sp.lastSearch; c.r == r && c.name == name {
-		return c.x, c.err
-	}
-	i, err := sr.mineral(name)
-	if err != nil {
-		return 0, err
-	}
-	return sr.toEquilibrium(i, si0)
-}
-
 // competing keeps, of candidate minerals with the same composition on the
-// masters (water aside), the one with the highest SI.
+// masters (water aside), the one with the highest SI (the first of equals).
 func competing(m *Model, r *Result, cand []int) []int {
-	key := func(i int) string { return fmt.Sprint(m.minerals[i].nu) }
-	best := map[string]int{}
-	for _, i := range cand {
-		k := key(i)
-		j, ok := best[k]
-		si, _ := r.SI(m.minerals[i].name)
-		sj, _ := r.SI(m.minerals[j].name)
-		if !ok || si > sj {
-			best[k] = i
-		}
-	}
 	var out []int
-	for _, i := range cand {
-		if best[key(i)] == i {
+	for p, i := range cand {
+		si, _ := r.SI(m.minerals[i].name)
+		best := true
+		for q, j := range cand {
+			if q == p || !slices.Equal(m.minerals[i].nu, m.minerals[j].nu) {
+				continue
+			}
+			if sj, _ := r.SI(m.minerals[j].name); sj > si || sj == si && q < p {
+				best = false
+				break
+			}
+		}
+		if best {
 			out = append(out, i)
 		}
 	}

@@ -113,6 +113,9 @@ type solver struct {
 	eqX []float64
 	// tol is the convergence tolerance of the solve under way.
 	tol float64
+	// solves counts the solves, so that a search can tell whether the
+	// solution it left is still the solver's state.
+	solves int
 }
 
 // maxEquilibria bounds the minerals of one equilibrium solve.
@@ -207,6 +210,7 @@ var ErrNoConvergence = errors.New("speciation did not converge")
 // solve speciates problem p. With warm, the previous solution is the
 // starting point when the unknowns are the same.
 func (s *solver) solve(p problem, warm bool) error {
+	s.solves++
 	s.p = p
 	s.setTemperature(p.t)
 	if s.pz != nil {
@@ -856,9 +860,9 @@ func (s *solver) newton() error {
 	// molalities at the top of every iteration and held during the step;
 	// the solve has converged when the residuals and the refresh both are.
 	pitzer := s.pitzerActive()
-	limit := maxIterations
+	limit, lagTol := maxIterations, pitzerTolerance
 	if len(s.eq) > 0 {
-		limit = maxEquilibriumIterations
+		limit, lagTol = maxEquilibriumIterations, eqPitzerTolerance
 	}
 	for it := 0; it < limit; it++ {
 		s.iterations = it + 1
@@ -873,7 +877,7 @@ func (s *solver) newton() error {
 		if math.IsNaN(sumSq) || math.IsInf(sumSq, 0) {
 			return fmt.Errorf("%w: residual became NaN", ErrNoConvergence)
 		}
-		if maxAbs < s.tol && lagMove < pitzerTolerance {
+		if maxAbs < s.tol && lagMove < lagTol {
 			return nil
 		}
 		if chord && maxAbs > 0.1*prevMax {
