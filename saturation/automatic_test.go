@@ -106,3 +106,25 @@ func TestGypsumInNa2SO4(t *testing.T) {
 			lowest, lowestAt, prev, s0, src)
 	}
 }
+
+// BenchmarkDiluteAutomatic is one speciation of the eight cooling waters
+// of BenchmarkSpeciateWarm (I ≈ 0.03 mol/kg) under the automatic model
+// (the Pitzer set), reusing one Speciator; BenchmarkDiluteDavies is the
+// same under Davies, the automatic choice for such waters before issue 10.
+// Their ratio is the cost of the one activity treatment on a dilute water.
+func BenchmarkDiluteAutomatic(b *testing.B) { benchDilute(b, Auto) }
+
+// BenchmarkDiluteDavies: see BenchmarkDiluteAutomatic.
+func BenchmarkDiluteDavies(b *testing.B) { benchDilute(b, Davies) }
+
+func benchDilute(b *testing.B, model ActivityModel) {
+	ws := benchWaters()
+	sp := NewSpeciator(nil)
+	i := 0
+	for b.Loop() {
+		if _, err := sp.Speciate(ws[i%len(ws)], Options{Activity: model}); err != nil {
+			b.Fatal(err)
+		}
+		i++
+	}
+}
