@@ -117,13 +117,9 @@ func cyclesFinding(c *saturation.CyclesResult, rule saturation.CarbonateRule) st
 	where := profileWords(c.Profile.Name) + ", with " + ruleWords(rule)
 	switch {
 	case len(c.Exceeded) > 0:
-		var names []string
-		for _, q := range c.Exceeded {
-			names = append(names, quantityLabel(q))
-		}
-		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past %s for %s (judged %s): "+
-			"it needs treatment before it is concentrated.", profileWords(c.Profile.Name), strings.Join(names, ", "),
-			"at the pH a tower settles at, "+ruleWords(rule))
+		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past the limit for %s: it needs "+
+			"treatment before it is concentrated. (Judged under %s, at %s.)", joinWords(exceededWords(c)),
+			profileWords(c.Profile.Name), ruleWords(rule))
 	case c.Limiting == "":
 		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).",
 			num(c.MaxCycles, 1), where)
@@ -138,7 +134,9 @@ func (b *builder) cyclesCaption(s *plan.Sample, sw *sweepSet, forced string) str
 	text := fmt.Sprintf("Every dissolved constituent concentrated 1 to %s times%s; carbonate system: %s.",
 		num(sw.maxCycles, 1), forced, rule)
 	if c := s.CyclesAnswer; sw.fromSearch && c != nil {
-		if c.Limiting == "" {
+		if len(c.Exceeded) > 0 {
+			text += fmt.Sprintf(" Already at 1 cycle the water is past the limit for %s.", joinWords(exceededWords(c)))
+		} else if c.Limiting == "" {
 			text += fmt.Sprintf(" No limit of %s is reached in this range.", profileWords(c.Profile.Name))
 		}
 	}
@@ -211,9 +209,9 @@ func (b *builder) qualityFinding(s *plan.Sample) []string {
 		return []string{"The ion balance cannot be checked: no ions were reported."}
 	}
 	if q.BalanceAcceptable {
-		return []string{fmt.Sprintf("The ion balance (%s %%) meets the usual criterion (%s).", signed(q.BalancePercent, 2), q.BalanceLimit)}
+		return []string{fmt.Sprintf("The ion balance (%s %%) meets the usual criterion: %s.", signed(q.BalancePercent, 2), q.BalanceLimit)}
 	}
-	return []string{fmt.Sprintf("The ion balance (%s %%) fails the usual criterion (%s): an analyte may be missing or in "+
+	return []string{fmt.Sprintf("The ion balance (%s %%) fails the usual criterion, %s: an analyte may be missing or in "+
 		"error, and every index above is less certain.", signed(q.BalancePercent, 2), q.BalanceLimit)}
 }
 

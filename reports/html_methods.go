@@ -58,7 +58,7 @@ func (b *builder) methods() methodsView {
 	mv.Carbonate = "The measured pH at its measurement temperature and the alkalinity fix the inorganic carbon. " +
 		"At any other temperature, concentration or dose the system is closed: carbon and alkalinity are conserved " +
 		"(changed only by what a reagent adds) and pH is recomputed. The cycles figures follow the carbonate rule " +
-		"chosen for the report: " + ruleWords(b.o.Plan.Rule()) + "."
+		"chosen for the report: " + ruleWords(b.o.Plan.Rule()) + naturalRelation(b.o.Plan.Rule()) + "."
 	if o.Plan.Speciation.AtTemperature {
 		mv.Carbonate += fmt.Sprintf(" Every sample was evaluated at %s °C, as asked.", num(o.Plan.Speciation.Temperature, 1))
 	}
@@ -221,4 +221,13 @@ func slowNames() []string {
 		}
 	}
 	return out
+}
+
+// naturalRelation gives the relation of the natural tower rule, for the
+// methods.
+func naturalRelation(r saturation.CarbonateRule) string {
+	if r.Name != "natural" {
+		return ""
+	}
+	return ", pH = 1.465·log₁₀(alkalinity, mg/L as CaCO₃) + 4.54 with the alkalinity conserved (Puckorius & Brooke 1991)"
 }

@@ -58,7 +58,7 @@ func (b *builder) sectionTail(sv *sampleView, s *plan.Sample, r *saturation.Resu
 	}
 	sv.Warnings = append(sv.Warnings, s.Warnings...)
 	for i, w := range sv.Warnings {
-		sv.Warnings[i] = clientText(w)
+		sv.Warnings[i] = sentence(upperFirst(clientText(w)))
 	}
 }
 

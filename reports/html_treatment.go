@@ -163,7 +163,7 @@ func (b *builder) doseView(tv *treatmentView, s *plan.Sample, d *saturation.Dose
 	for _, w := range d.Warnings {
 		// The side effects are in the table above, in the report's bands.
 		if c := strings.TrimSpace(d.Reagent.Caution); (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") {
-			tv.DoseWarnings = append(tv.DoseWarnings, clientText(w))
+			tv.DoseWarnings = append(tv.DoseWarnings, sentence(upperFirst(clientText(w))))
 		}
 	}
 	if tv.Dose != nil {
@@ -174,10 +174,7 @@ func (b *builder) doseView(tv *treatmentView, s *plan.Sample, d *saturation.Dose
 // cyclesView lays out the highest cycles of concentration.
 func (b *builder) cyclesView(tv *treatmentView, c *saturation.CyclesResult) {
 	highest, limiting := num(c.MaxCycles, 2), "none within the range searched"
-	var exceeded []string
-	for _, q := range c.Exceeded {
-		exceeded = append(exceeded, quantityLabel(q))
-	}
+	exceeded := exceededWords(c)
 	switch {
 	case len(exceeded) > 0:
 		highest, limiting = "none: the water is already past a limit", strings.Join(exceeded, ", ")
@@ -204,7 +201,7 @@ func (b *builder) cyclesView(tv *treatmentView, c *saturation.CyclesResult) {
 		if len(exceeded) > 0 && strings.Contains(w, "already exceeds") {
 			continue // said above in words
 		}
-		tv.CycleNotes = append(tv.CycleNotes, clientText(w))
+		tv.CycleNotes = append(tv.CycleNotes, sentence(upperFirst(clientText(w))))
 	}
 }
 

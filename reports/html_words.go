@@ -58,8 +58,7 @@ func ruleWords(r saturation.CarbonateRule) string {
 	case r.SetPoint > 0:
 		return "acid dosed to hold pH " + num(r.SetPoint, 1) + ", its sulfate or chloride added"
 	case r.Name == "natural":
-		return "the pH an open tower settles at for its alkalinity (pH = 1.465·log₁₀(alkalinity) + 4.54, " +
-			"alkalinity as CaCO₃, common practice)"
+		return "the pH an open tower settles at for its alkalinity (common practice)"
 	case r.A != 0:
 		return "the pH from the tower's own relation, pH = " + num(r.A, 3) + "·log₁₀(alkalinity) " +
 			signedGap(r.B)
@@ -100,4 +99,27 @@ func activityWords(m saturation.ActivityModel) string {
 	default:
 		return s
 	}
+}
+
+// exceededWords names the limits a makeup water is already past, a mineral
+// by its name (its polymorphs, whose limit is the same, left out) and any
+// other quantity in words.
+func exceededWords(c *saturation.CyclesResult) []string {
+	var out []string
+	formulas := map[string]bool{}
+	for _, q := range c.Exceeded {
+		kind, mineral, _ := strings.Cut(q, ":")
+		if kind != "si" {
+			out = append(out, quantityLabel(q))
+			continue
+		}
+		if e, ok := saturation.DefaultTable().Entry(mineral); ok {
+			if formulas[e.Formula] {
+				continue
+			}
+			formulas[e.Formula] = true
+		}
+		out = append(out, mineralLabel(mineral))
+	}
+	return out
 }
