@@ -131,3 +131,26 @@ func TestSeawaterCalciteSaturation(t *testing.T) {
 		t.Errorf("seawater 5 → 35 °C: calcite SI changes by %+.3f, want a rise of %+.3f ± %g (stoichiometric constants)", rise, want, tolOmega)
 	}
 }
+
+// TestHeatedSeawaterCalcite: a seawater-cooled exchanger heats seawater at
+// fixed alkalinity and inorganic carbon; from 10 to 70 °C the calcite SI
+// must rise a little (issue 10: the stoichiometric constants give about
+// +0.05 from 10 to 50 °C; Lueker et al. 2000 are fitted only to 35 °C, so
+// beyond it only the sign is checked). The ion-association model gave a
+// fall of about 0.2 here, making the hot side look safer than the cold.
+func TestHeatedSeawaterCalcite(t *testing.T) {
+	sp := NewSpeciator(nil)
+	si := map[float64]float64{}
+	for _, tc := range []float64{10, 50, 70} {
+		r, err := sp.Speciate(seawaterForCarbonate(tc), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		si[tc], _ = r.SI("calcite")
+	}
+	t.Logf("calcite SI of S=35 seawater: 10 °C %.3f, 50 °C %.3f, 70 °C %.3f", si[10], si[50], si[70])
+	if !(si[50] > si[10]) || !(si[70] > si[10]) {
+		t.Errorf("heating seawater at fixed carbon and alkalinity: calcite SI %.3f (10 °C), %.3f (50 °C), %.3f (70 °C); want a rise (Lueker et al. 2000, Mucci 1983)",
+			si[10], si[50], si[70])
+	}
+}
