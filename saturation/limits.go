@@ -145,7 +145,7 @@ func embedded() []LimitProfile {
 }
 
 // Limits returns a copy of the embedded limit profiles (data/limits.csv):
-// "no-inhibitor" and "inhibitor". Changing the copy changes no later call.
+// "no-inhibitor", "inhibitor" and "membrane". Changing the copy changes no later call.
 func Limits() []LimitProfile {
 	ps := embedded()
 	out := make([]LimitProfile, len(ps))
