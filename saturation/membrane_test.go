@@ -75,7 +75,16 @@ func TestMaxRecoveryAndAcid(t *testing.T) {
 	if v, _ := l.Value(at.Surface.Result, at.Surface.Indices); math.Abs(v-l.Max) > 0.01*math.Max(1, math.Abs(l.Max)) {
 		t.Errorf("%s at %.3f recovery = %.4g, want its limit %g", r.Limiting, r.Recovery, v, l.Max)
 	}
-	target := r.Recovery + 0.04 // below the silica limit of this feed (about 83 %)
+	// Acid moves the carbonate limits only: judge it on a profile without
+	// silica, which this feed reaches a few percent above the calcite edge.
+	noSilica := LimitProfile{Name: "membrane without silica"}
+	for _, l := range profile.Limits {
+		if l.Quantity != "si:silica_amorphous" {
+			noSilica.Limits = append(noSilica.Limits, l)
+		}
+	}
+	profile = noSilica
+	target := r.Recovery + 0.05
 	acid, err := AcidForRecovery(feed, mustReagent(t, "h2so4"), 0, target, Membrane{}, profile, Options{})
 	if err != nil {
 		t.Fatal(err)
