@@ -30,7 +30,7 @@ type DoseJSON struct {
 	// CostPerDay is the product's cost per day at the flow and the price
 	// per kg of product given (currency as the price's).
 	CostPerDay *float64 `json:"cost_per_day,omitempty"`
-	Reached         bool     `json:"reached"`
+	Reached    bool     `json:"reached"`
 	JudgementJSON
 	Before   *SampleJSON `json:"before,omitempty"`
 	After    *SampleJSON `json:"after,omitempty"`
