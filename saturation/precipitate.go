@@ -386,14 +386,16 @@ func (sr *search) jointActiveSet(idx []int) ([]float64, error) {
 		active[k] = true
 	}
 	act, mins := make([]int, 0, n), make([]int, 0, n)
-	xa := make([]float64, n)
+	xa, x0 := make([]float64, n), make([]float64, n)
 	for round := 0; round < 3*n+3; round++ {
-		act, mins = act[:0], mins[:0]
+		act, mins, x0 = act[:0], mins[:0], x0[:0]
 		for k := range idx {
-			x[k] = 0
 			if active[k] {
-				act, mins = append(act, k), append(mins, idx[k])
+				// Each round starts from the last round's amounts, the
+				// negative ones at zero.
+				act, mins, x0 = append(act, k), append(mins, idx[k]), append(x0, max(x[k], 0))
 			}
+			x[k] = 0
 		}
 		sr.reset()
 		if len(mins) == 0 {
@@ -401,22 +403,23 @@ func (sr *search) jointActiveSet(idx []int) ([]float64, error) {
 				return nil, err
 			}
 		} else {
+			sr.remove(mins, x0)
 			if err := sr.s.solveEquilibrium(sr.p, mins, xa); err != nil {
 				return nil, err
 			}
+			for q, k := range act {
+				x[k] = xa[q] + x0[q]
+			}
 			// The most negative amount leaves the active set.
 			worst, at := 0.0, -1
-			for q, k := range act {
-				if xa[q] < worst {
-					worst, at = xa[q], k
+			for _, k := range act {
+				if x[k] < worst {
+					worst, at = x[k], k
 				}
 			}
 			if at >= 0 {
 				active[at] = false
 				continue
-			}
-			for q, k := range act {
-				x[k] = xa[q]
 			}
 		}
 		// The most supersaturated of the minerals left out rejoins.
