@@ -69,6 +69,7 @@ func TestJobsSameOutput(t *testing.T) {
 		{few, []string{"dose", "-", "--reagent", "h2so4", "--target", "lsi=0.5", "--format", "json"}},
 		{few, []string{"cycles", "-", "--limits", "inhibitor", "--max", "4", "--format", "csv"}},
 		{few, []string{"sweep", "-", "--vary", "temperature=20:80:3", "--format", "text"}},
+		{mixedWaters(38), []string{"report", "-", "-o", "-", "--date", "none", "--detail", "2"}},
 	}
 	for _, c := range cases {
 		name := strings.Join(c.args, " ")
