@@ -129,7 +129,11 @@ type AssessJSON struct {
 
 // Sample turns one assessment into its JSON form: values rounded for
 // display, NaN never written (the key is left out instead).
-func Sample(as saturation.Assessment) SampleJSON {
+func Sample(as saturation.Assessment) SampleJSON { return sample(as, true) }
+
+// sample is Sample; without full it leaves out what the CSV row does not
+// show (risk bands, ranking, species), which is most of the cost of a row.
+func sample(as saturation.Assessment, full bool) SampleJSON {
 	s := SampleJSON{Name: as.Name, File: as.File, Line: as.Line, Warnings: []string{}}
 	if as.Err != nil {
 		msg := as.Err.Error()
@@ -157,9 +161,24 @@ func Sample(as saturation.Assessment) SampleJSON {
 	s.AlkalinityMeqPerKg = optional(1000*r.Alkalinity, func(x float64) float64 { return sig(x, 5) })
 	s.LogPCO2 = optional(r.LogPCO2, func(x float64) float64 { return dec(x, 3) })
 	s.SaturationIndex = map[string]float64{}
-	s.RiskBand = map[string]string{}
 	for _, m := range r.Minerals {
 		s.SaturationIndex[m.Name] = dec(m.SI, 3)
+	}
+	s.Warnings = append(s.Warnings, r.Warnings...)
+	s.Indices = indicesJSON(as.Indices)
+	s.Precipitation = precipitationJSON(as.Precipitation, as.Flow)
+	s.Warnings = append(s.Warnings, as.Warnings...)
+	if full {
+		addRisk(&s, r)
+	}
+	return s
+}
+
+// addRisk adds the risk band of each mineral, the ranking, the limiting
+// mineral and the species of r to s.
+func addRisk(s *SampleJSON, r *saturation.Result) {
+	s.RiskBand = map[string]string{}
+	for _, m := range r.Minerals {
 		s.RiskBand[m.Name] = saturation.RiskBand(m.Name, m.SI).String()
 	}
 	for _, rk := range saturation.Rank(r, nil) {
@@ -175,11 +194,6 @@ func Sample(as saturation.Assessment) SampleJSON {
 		s.Species = append(s.Species, SpeciesJSON{Name: sp.Name, Molality: sig(sp.Molality, 5),
 			Gamma: sig(sp.Gamma, 5), Activity: sig(sp.Activity, 5)})
 	}
-	s.Warnings = append(s.Warnings, r.Warnings...)
-	s.Indices = indicesJSON(as.Indices)
-	s.Precipitation = precipitationJSON(as.Precipitation, as.Flow)
-	s.Warnings = append(s.Warnings, as.Warnings...)
-	return s
 }
 
 func qualityJSON(q water.Quality) *QualityJSON {
@@ -286,7 +300,7 @@ const notDefined = "not defined"
 
 // assessRow is the CSV row of one assessment.
 func assessRow(a saturation.Assessment, minerals []string) []string {
-	s := Sample(a)
+	s := sample(a, false)
 	row := []string{s.Name, s.File, strconv.Itoa(s.Line), formatOpt(s.TemperatureC, 2), formatOpt(s.PH, 3),
 		fmtG(s.IonicStrength), strOrBlank(s.ActivityModel), formatOpt(s.ChargeBalancePercent, 2), fmtG(s.AlkalinityMeqPerKg)}
 	ix := s.Indices

@@ -99,15 +99,18 @@ type WriteOptions struct {
 // {"samples":[…],"caution":"…"} whose array is streamed, CSV as one header
 // and the rows of each sample, text as one block per sample (blank lines
 // between) and the caution at the end. Close ends the document.
+//
+// Write encodes and writes a sample. A batch can split the two: Encode is
+// safe to call from many goroutines at once (workers encode the samples
+// they computed), and WriteEncoded writes them in order.
 type SampleWriter[T any] struct {
 	w      io.Writer
 	f      Format
 	layout Layout[T]
 	opt    WriteOptions
+	header []byte // the CSV header line
 	n      int
-	cw     *csv.Writer
-	buf    bytes.Buffer
-	enc    *json.Encoder
+	buf    []byte
 	err    error
 }
 
@@ -115,18 +118,44 @@ type SampleWriter[T any] struct {
 // f to w.
 func NewSampleWriter[T any](w io.Writer, f Format, layout Layout[T], opt WriteOptions) *SampleWriter[T] {
 	sw := &SampleWriter[T]{w: w, f: f, layout: layout, opt: opt}
-	switch f {
-	case JSON:
-		sw.enc = json.NewEncoder(&sw.buf)
-		sw.enc.SetEscapeHTML(false)
-		if opt.Indent {
-			// Elements sit two levels deep in the document.
-			sw.enc.SetIndent("    ", "  ")
-		}
-	case CSV:
-		sw.cw = csv.NewWriter(w)
+	if f == CSV {
+		sw.header, sw.err = csvBytes([][]string{layout.Header})
 	}
 	return sw
+}
+
+// csvBytes is rows as CSV.
+func csvBytes(rows [][]string) ([]byte, error) {
+	var b bytes.Buffer
+	cw := csv.NewWriter(&b)
+	if err := cw.WriteAll(rows); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
+}
+
+// Encode returns the bytes of one sample in the document: its JSON object,
+// its CSV rows or its text block. It shares nothing mutable with the
+// writer or other calls.
+func (sw *SampleWriter[T]) Encode(v T) ([]byte, error) {
+	switch sw.f {
+	case JSON:
+		var b bytes.Buffer
+		enc := json.NewEncoder(&b)
+		enc.SetEscapeHTML(false)
+		if sw.opt.Indent {
+			enc.SetIndent("    ", "  ") // elements sit two levels deep in the document
+		}
+		if err := enc.Encode(sw.layout.JSON(v)); err != nil {
+			return nil, err
+		}
+		return bytes.TrimSuffix(b.Bytes(), []byte("\n")), nil
+	case CSV:
+		return csvBytes(sw.layout.CSV(v))
+	}
+	var b strings.Builder
+	sw.layout.Text(&b, v)
+	return []byte(b.String()), nil
 }
 
 // Write writes one sample; after the first error every call returns it.
@@ -134,36 +163,38 @@ func (sw *SampleWriter[T]) Write(v T) error {
 	if sw.err != nil {
 		return sw.err
 	}
+	b, err := sw.Encode(v)
+	if err != nil {
+		sw.err = err
+		return err
+	}
+	return sw.WriteEncoded(b)
+}
+
+// WriteEncoded writes one sample encoded by Encode, after what goes
+// before it in the document (the start of the document, the CSV header, a
+// comma or a blank line), in one write.
+func (sw *SampleWriter[T]) WriteEncoded(b []byte) error {
+	if sw.err != nil {
+		return sw.err
+	}
 	first := sw.n == 0
 	sw.n++
-	sw.buf.Reset()
+	sw.buf = sw.buf[:0]
 	switch sw.f {
 	case JSON:
-		sw.buf.WriteString(sw.jsonLead(first))
-		if err := sw.enc.Encode(sw.layout.JSON(v)); err != nil {
-			sw.err = err
-			return err
-		}
-		sw.buf.Truncate(sw.buf.Len() - 1) // Encode's newline
+		sw.buf = append(sw.buf, sw.jsonLead(first)...)
 	case CSV:
 		if first {
-			sw.cw.Write(sw.layout.Header)
+			sw.buf = append(sw.buf, sw.header...)
 		}
-		for _, row := range sw.layout.CSV(v) {
-			sw.cw.Write(row)
-		}
-		sw.cw.Flush()
-		sw.err = sw.cw.Error()
-		return sw.err
 	default:
-		var b strings.Builder
 		if !first {
-			b.WriteString("\n")
+			sw.buf = append(sw.buf, '\n')
 		}
-		sw.layout.Text(&b, v)
-		sw.buf.WriteString(b.String())
 	}
-	_, sw.err = sw.w.Write(sw.buf.Bytes())
+	sw.buf = append(sw.buf, b...)
+	_, sw.err = sw.w.Write(sw.buf)
 	return sw.err
 }
 
@@ -193,21 +224,18 @@ func (sw *SampleWriter[T]) Close() error {
 		caution := jsonString(sw.layout.Caution)
 		switch {
 		case sw.n == 0 && sw.opt.Indent:
-			tail = "{\n  \"samples\": [],\n  \"caution\": " + string(caution) + "\n}\n"
+			tail = "{\n  \"samples\": [],\n  \"caution\": " + caution + "\n}\n"
 		case sw.n == 0:
-			tail = `{"samples":[],"caution":` + string(caution) + "}\n"
+			tail = `{"samples":[],"caution":` + caution + "}\n"
 		case sw.opt.Indent:
-			tail = "\n  ],\n  \"caution\": " + string(caution) + "\n}\n"
+			tail = "\n  ],\n  \"caution\": " + caution + "\n}\n"
 		default:
-			tail = `],"caution":` + string(caution) + "}\n"
+			tail = `],"caution":` + caution + "}\n"
 		}
 	case CSV:
 		if sw.n == 0 {
-			sw.cw.Write(sw.layout.Header)
+			tail = string(sw.header)
 		}
-		sw.cw.Flush()
-		sw.err = sw.cw.Error()
-		return sw.err
 	default:
 		tail = "\n" + wrap(sw.layout.Caution, 78) + "\n"
 	}

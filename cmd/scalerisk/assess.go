@@ -51,7 +51,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if withDraws {
 				return assessUncertain(cmd, c, r, src, format, opt, mc)
 			}
-			w := reports.NewAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
+			w := reports.NewAssessWriter(r.out, format, mineralNames(opt.Model), c.writeOptions(cmd))
 			return stream(r, src, w, batch[saturation.Assessment]{
 				newWorker: func() func(string, water.Record) (saturation.Assessment, error) {
 					sp := saturation.NewSpeciator(opt.Model)

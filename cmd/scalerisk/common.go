@@ -1,6 +1,7 @@
 package main
 
 import (
+	"bufio"
 	"errors"
 	"fmt"
 	"io"
@@ -137,7 +138,7 @@ func (c *commonFlags) runner(cmd *cobra.Command, args []string, stdin io.Reader,
 	if len(inputs) == 0 {
 		return nil, nil, badInput(errors.New("no input: give CSV files, - for standard input, or --demo"))
 	}
-	r := &runner{stdin: stdin, stderr: cmd.ErrOrStderr(), jobs: c.jobs}
+	r := &runner{out: bufio.NewWriterSize(cmd.OutOrStdout(), 64<<10), stdin: stdin, stderr: cmd.ErrOrStderr(), jobs: c.jobs}
 	r.progress = newProgress(r.stderr, inputSize(inputs))
 	return r, r.items(inputs, ropt), nil
 }
@@ -164,7 +165,11 @@ func open(in input, stdin io.Reader) (io.ReadCloser, error) {
 	if err != nil {
 		return nil, &water.InputError{File: in.name, Err: errors.Unwrap(err)}
 	}
-	return f, nil
+	// Large reads: a few system calls for many rows.
+	return struct {
+		io.Reader
+		io.Closer
+	}{bufio.NewReaderSize(f, 64<<10), f}, nil
 }
 
 // readInput reads the whole of one input.

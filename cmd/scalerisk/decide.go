@@ -70,7 +70,7 @@ func newDoseCmd(stdin io.Reader) *cobra.Command {
 			if withDraws {
 				return doseUncertain(cmd, c, run, src, format, doseQuestion{r, strength, tgt}, opt, mc)
 			}
-			w := reports.NewDoseWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+			w := reports.NewDoseWriter(run.out, format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.DoseOutcome]{
 				newWorker: func() func(string, water.Record) (reports.DoseOutcome, error) {
 					return func(_ string, rec water.Record) (reports.DoseOutcome, error) {
@@ -197,7 +197,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if withDraws {
 				return cyclesUncertain(cmd, c, run, src, format, cyclesQuestion{profile, rule, carbonate, maxN, step, evaporation}, opt, mc)
 			}
-			w := reports.NewCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+			w := reports.NewCyclesWriter(run.out, format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.CyclesOutcome]{
 				newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
 					return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
@@ -274,7 +274,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			w := reports.NewSweepWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+			w := reports.NewSweepWriter(run.out, format, c.writeOptions(cmd))
 			return stream(run, src, w, batch[reports.SweepOutcome]{
 				newWorker: func() func(string, water.Record) (reports.SweepOutcome, error) {
 					return func(_ string, rec water.Record) (reports.SweepOutcome, error) {

@@ -1,12 +1,14 @@
 package main
 
 import (
+	"bufio"
 	"context"
 	"errors"
 	"fmt"
 	"io"
 	"iter"
 	"sync"
+	"time"
 
 	"scalerisk/reports"
 	"scalerisk/saturation"
@@ -18,6 +20,7 @@ import (
 // of samples that could not be computed, which exit turns into the exit
 // status.
 type runner struct {
+	out      *bufio.Writer // standard output, flushed whenever the writer waits
 	stdin    io.Reader
 	stderr   io.Writer
 	jobs     int
@@ -28,6 +31,7 @@ type runner struct {
 
 // problem reports a fault of the input on stderr and counts it.
 func (r *runner) problem(err error) {
+	r.flush() // the output of the samples before it first; an error resurfaces at the next flush
 	r.progress.clear()
 	fmt.Fprintln(r.stderr, err)
 	r.problems++
@@ -37,6 +41,7 @@ func (r *runner) problem(err error) {
 // naming its file and line, and counts it: an inconsistent analysis as bad
 // input, any other as a failure.
 func (r *runner) sampleError(file string, line int, err error) {
+	r.flush()
 	r.progress.clear()
 	fmt.Fprintf(r.stderr, "%s:%d: %v\n", file, line, err)
 	if errors.Is(err, saturation.ErrInconsistent) {
@@ -159,6 +164,7 @@ func runBatch[T any](r *runner, src iter.Seq[item], b batch[T]) error {
 	}()
 	pending := make(map[int]job[T], cap(window))
 	next := 0
+	var flushed time.Time
 	for res := range done {
 		pending[res.seq] = res
 		for p, ok := pending[next]; ok; p, ok = pending[next] {
@@ -170,8 +176,28 @@ func runBatch[T any](r *runner, src iter.Seq[item], b batch[T]) error {
 			}
 			r.progress.done()
 		}
+		if len(done) == 0 && time.Since(flushed) >= flushEvery {
+			// Nothing more is ready: let out what was written (one
+			// write for many samples, never held back for long).
+			if err := r.flush(); err != nil {
+				return err
+			}
+			flushed = time.Now()
+		}
 	}
-	return nil
+	return r.flush()
+}
+
+// flushEvery is how long the output may wait in its buffer while samples
+// are still being computed.
+const flushEvery = 100 * time.Millisecond
+
+// flush writes out what is buffered for standard output.
+func (r *runner) flush() error {
+	if r.out == nil {
+		return nil
+	}
+	return r.out.Flush()
 }
 
 // emit reports and writes one result.
@@ -193,17 +219,49 @@ func emit[T any](r *runner, res job[T], b batch[T]) error {
 	return b.write(res.out)
 }
 
-// stream runs b over src with r, writing each result with w as soon as it
-// is ready, then ends the document and maps the tally to the exit status.
-// A write error (a closed pipe, a full disk) is a failure.
+// stream runs b over src with r, each worker encoding the samples it
+// computed with w (so formatting is parallel too), and writes them in input
+// order as soon as each is ready; then it ends the document and maps the
+// tally to the exit status. A write error (a closed pipe, a full disk) is
+// a failure.
 func stream[T any](r *runner, src iter.Seq[item], w *reports.SampleWriter[T], b batch[T]) error {
-	b.write = w.Write
-	err := runBatch(r, src, b)
+	encode := func(v T) encoded {
+		data, err := w.Encode(v)
+		return encoded{data, err}
+	}
+	eb := batch[encoded]{
+		newWorker: func() func(string, water.Record) (encoded, error) {
+			work := b.newWorker()
+			return func(file string, rec water.Record) (encoded, error) {
+				v, err := work(file, rec)
+				return encode(v), err
+			}
+		},
+		write: func(e encoded) error {
+			if e.err != nil {
+				return e.err
+			}
+			return w.WriteEncoded(e.data)
+		},
+	}
+	if b.bad != nil {
+		eb.bad = func(file string, rec water.Record) encoded { return encode(b.bad(file, rec)) }
+	}
+	err := runBatch(r, src, eb)
 	if err == nil {
 		err = w.Close()
+	}
+	if err == nil {
+		err = r.flush()
 	}
 	if err != nil {
 		return &exitError{code: exitInternal, err: err}
 	}
 	return r.exit()
+}
+
+// encoded is one sample as it goes into the document, or why it cannot.
+type encoded struct {
+	data []byte
+	err  error
 }

@@ -57,7 +57,7 @@ func (u *uncertaintyFlags) settings() (s uncertainty.Settings, ok bool, err erro
 // Monte Carlo summary.
 func assessUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, opt saturation.Options, mc uncertainty.Settings) error {
 	mc.Workers = c.jobs // draws of one sample share the workers too
-	w := reports.NewUncertainAssessWriter(cmd.OutOrStdout(), format, mineralNames(opt.Model), c.writeOptions(cmd))
+	w := reports.NewUncertainAssessWriter(r.out, format, mineralNames(opt.Model), c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainAssessment]{
 		newWorker: func() func(string, water.Record) (reports.UncertainAssessment, error) {
 			sp := saturation.NewSpeciator(opt.Model)
@@ -88,7 +88,7 @@ type doseQuestion struct {
 // reaches the target with the run's confidence.
 func doseUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, q doseQuestion, opt saturation.Options, mc uncertainty.Settings) error {
 	mc.Workers = c.jobs // draws of one sample share the workers too
-	w := reports.NewUncertainDoseWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+	w := reports.NewUncertainDoseWriter(r.out, format, c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainDose]{
 		newWorker: func() func(string, water.Record) (reports.UncertainDose, error) {
 			return func(_ string, rec water.Record) (reports.UncertainDose, error) {
@@ -116,7 +116,7 @@ type cyclesQuestion struct {
 // the highest cycles that hold with the run's confidence.
 func cyclesUncertain(cmd *cobra.Command, c *commonFlags, r *runner, src iter.Seq[item], format reports.Format, q cyclesQuestion, opt saturation.Options, mc uncertainty.Settings) error {
 	mc.Workers = c.jobs // draws of one sample share the workers too
-	w := reports.NewUncertainCyclesWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+	w := reports.NewUncertainCyclesWriter(r.out, format, c.writeOptions(cmd))
 	return stream(r, src, w, batch[reports.UncertainCycles]{
 		newWorker: func() func(string, water.Record) (reports.UncertainCycles, error) {
 			return func(_ string, rec water.Record) (reports.UncertainCycles, error) {
