@@ -5,9 +5,8 @@ import (
 	"errors"
 	"io"
 	"math"
-	"os"
-	"path/filepath"
 
+	"scalerisk/outfile"
 	"scalerisk/plan"
 	"scalerisk/saturation"
 	"scalerisk/water"
@@ -129,50 +128,15 @@ func WriteHTML(w io.Writer, r Report) error {
 	return hw.Finish(w)
 }
 
-// WriteHTMLFile writes the report to path whole or not at all: it is
-// rendered into a temporary file in the same directory, synced and renamed
-// over path, so that a failure leaves any earlier file at path untouched
-// and no partial file behind. The file is readable by all (mode 0644).
+// WriteHTMLFile writes the report to path whole or not at all, as
+// outfile.Write does: a failure leaves any earlier file at path untouched
+// and no partial file behind; a new file is readable by all (mode 0644),
+// an existing one keeps its mode.
 func WriteHTMLFile(path string, r Report) error {
 	if err := r.Options.Check(); err != nil {
 		return err
 	}
-	return WriteFileAtomic(path, func(w io.Writer) error { return WriteHTML(w, r) })
-}
-
-// WriteFileAtomic writes what fill writes to path whole or not at all:
-// through a temporary file in the same directory, synced and renamed over
-// path (mode 0644). When fill or a step fails, any earlier file at path is
-// untouched and no temporary file is left.
-func WriteFileAtomic(path string, fill func(io.Writer) error) (err error) {
-	dir, base := filepath.Split(path)
-	if dir == "" {
-		dir = "."
-	}
-	f, err := os.CreateTemp(dir, "."+base+".tmp-*")
-	if err != nil {
-		return err
-	}
-	tmp := f.Name()
-	defer func() {
-		if err != nil {
-			f.Close()
-			os.Remove(tmp)
-		}
-	}()
-	if err = fill(f); err != nil {
-		return err
-	}
-	if err = f.Sync(); err != nil {
-		return err
-	}
-	if err = f.Close(); err != nil {
-		return err
-	}
-	if err = os.Chmod(tmp, 0o644); err != nil {
-		return err
-	}
-	return os.Rename(tmp, path)
+	return outfile.Write(path, nil, func(w io.Writer) error { return WriteHTML(w, r) })
 }
 
 // errNoValue marks a number that is NaN or infinite where a chart needs one.

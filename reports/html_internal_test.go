@@ -2,10 +2,7 @@ package reports
 
 import (
 	"errors"
-	"io"
 	"math"
-	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -103,38 +100,6 @@ func TestPanelChartDropsEmptyPanels(t *testing.T) {
 	pc.Panels = pc.Panels[:2]
 	if _, err := pc.option(); !errors.Is(err, errNoPanel) {
 		t.Errorf("a chart with no finite point: err = %v, want errNoPanel", err)
-	}
-}
-
-// TestWriteAtomicFailure: a write that fails half-way leaves the earlier
-// file untouched and no temporary file.
-func TestWriteAtomicFailure(t *testing.T) {
-	dir := t.TempDir()
-	path := filepath.Join(dir, "r.html")
-	if err := os.WriteFile(path, []byte("earlier"), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	boom := errors.New("boom")
-	err := WriteFileAtomic(path, func(w io.Writer) error {
-		io.WriteString(w, "<!DOCTYPE html><html><body>half a rep")
-		return boom
-	})
-	if !errors.Is(err, boom) {
-		t.Fatalf("err = %v, want boom", err)
-	}
-	got, _ := os.ReadFile(path)
-	if string(got) != "earlier" {
-		t.Errorf("file holds %q after a failed write, want the earlier content", got)
-	}
-	entries, _ := os.ReadDir(dir)
-	if len(entries) != 1 {
-		t.Errorf("%d entries in the directory, want 1 (no temporary file left)", len(entries))
-	}
-	if err := WriteFileAtomic(path, func(w io.Writer) error { _, err := io.WriteString(w, "new"); return err }); err != nil {
-		t.Fatal(err)
-	}
-	if got, _ := os.ReadFile(path); string(got) != "new" {
-		t.Errorf("file holds %q, want new", got)
 	}
 }
 

@@ -4,11 +4,11 @@ import (
 	"errors"
 	"fmt"
 	"io"
-	"io/fs"
 	"time"
 
 	"github.com/spf13/cobra"
 
+	"scalerisk/outfile"
 	"scalerisk/plan"
 	"scalerisk/reports"
 	"scalerisk/saturation"
@@ -103,6 +103,11 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output == "" {
 		return badInput(errors.New("no output file: give -o report.html (or -o - for standard output)"))
 	}
+	if o.output != "-" {
+		if err := outfile.Check(o.output, o.inputFiles(args)); err != nil {
+			return badInput(err)
+		}
+	}
 	settings, err := o.settings(cmd, opt, ropt, stdin)
 	if err != nil {
 		return err
@@ -150,19 +155,22 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if o.output == "-" {
 		err = hw.Finish(cmd.OutOrStdout())
 	} else {
-		err = reports.WriteFileAtomic(o.output, hw.Finish)
+		err = outfile.Write(o.output, o.inputFiles(args), hw.Finish)
 	}
 	if err != nil {
-		code := exitInternal
-		if errors.Is(err, fs.ErrPermission) || errors.Is(err, fs.ErrNotExist) {
-			code = exitBadInput // an output path the user cannot write
-		}
-		return &exitError{code: code, err: fmt.Errorf("writing the report: %w", err)}
+		return outputError(err)
 	}
 	if o.output != "-" {
 		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, samples)
 	}
 	return r.exit()
+}
+
+// inputFiles lists the files report reads: its arguments and the files of
+// --thermo, --limits and --blend-with (names that are not files are
+// skipped by outfile).
+func (o *reportOptions) inputFiles(args []string) []string {
+	return append([]string{o.common.thermo, o.limits, o.blendWith}, args...)
 }
 
 // reportDate is the date shown on the report for --date d: today when d

@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"scalerisk/outfile"
 	"scalerisk/reports"
 )
 
@@ -29,6 +30,20 @@ func (e *exitError) Error() string { return e.err.Error() }
 func (e *exitError) Unwrap() error { return e.err }
 
 func badInput(err error) error { return &exitError{code: exitBadInput, err: err} }
+
+// outputError maps an error writing an output file to its exit status by
+// the one rule of output problems: a target that cannot be used (not a
+// regular file, one of the inputs, a directory that does not exist or
+// cannot be written) is bad input, exit 2, and nothing was written; a
+// failure while writing (a full disk, an I/O error) is exit 1, and any
+// earlier file is untouched.
+func outputError(err error) error {
+	var pe *outfile.PathError
+	if errors.As(err, &pe) {
+		return badInput(err)
+	}
+	return &exitError{code: exitInternal, err: fmt.Errorf("writing the output: %w", err)}
+}
 
 // newRootCmd builds the command tree; stdin serves "-" file arguments.
 func newRootCmd(stdin io.Reader) *cobra.Command {

@@ -1,0 +1,82 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"syscall"
+	"testing"
+)
+
+// TestReportOutputTargets: the output cases of issue 12, each with its
+// exact message and exit status (README "Exit status": a target that
+// cannot be used is bad input, exit 2, and nothing is written).
+func TestReportOutputTargets(t *testing.T) {
+	dir := t.TempDir()
+	in := filepath.Join(dir, "in.csv")
+	lab := "name,temperature [C],pH,Ca [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\ngood,25,7.8,80,100,150\n"
+	if err := os.WriteFile(in, []byte(lab), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	link := filepath.Join(dir, "in-link.html")
+	if err := os.Symlink("in.csv", link); err != nil {
+		t.Fatal(err)
+	}
+	fifo := filepath.Join(dir, "fifo.html")
+	if err := syscall.Mkfifo(fifo, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	cases := []struct {
+		args []string
+		want string
+	}{
+		// Before: as root /dev/null was replaced by a regular file. A
+		// named pipe stands in for the device here, so that a regression
+		// run as root cannot break the machine (outfile's test checks
+		// /dev/null itself without writing).
+		// Before: the lab's input was overwritten with HTML.
+		{[]string{"report", in, "-o", in}, "scalerisk: output " + in + ": is one of the inputs: refusing to overwrite it\n"},
+		{[]string{"report", in, "-o", link}, "scalerisk: output " + link + ": is one of the inputs: refusing to overwrite it\n"},
+		{[]string{"report", "--demo", "--blend-with", in, "-o", in}, "scalerisk: output " + in + ": is one of the inputs: refusing to overwrite it\n"},
+		{[]string{"report", in, "-o", dir}, "scalerisk: output " + dir + ": not a regular file (a directory)\n"},
+		{[]string{"report", in, "-o", fifo}, "scalerisk: output " + fifo + ": not a regular file (a named pipe)\n"},
+		{[]string{"report", in, "-o", filepath.Join(dir, "absent", "r.html")},
+			"scalerisk: output " + filepath.Join(dir, "absent", "r.html") + ": no such file or directory\n"},
+	}
+	for _, tc := range cases {
+		r := mustRun(t, exitBadInput, "", tc.args...)
+		if r.stderr != tc.want {
+			t.Errorf("%v: stderr %q, want %q", tc.args, r.stderr, tc.want)
+		}
+	}
+	if got, _ := os.ReadFile(in); string(got) != lab {
+		t.Errorf("the input was changed: %.80q", got)
+	}
+	entries, _ := os.ReadDir(dir)
+	if len(entries) != 3 {
+		t.Errorf("%d entries in the directory, want 3 (nothing written)", len(entries))
+	}
+}
+
+// TestReportOutputKeepsFile: an existing 0600 report keeps its mode and a
+// report reached through a symbolic link is written through it (before:
+// 0644 and a plain file in place of the link).
+func TestReportOutputKeepsFile(t *testing.T) {
+	dir := t.TempDir()
+	real := filepath.Join(dir, "real.html")
+	if err := os.WriteFile(real, []byte("old"), 0o600); err != nil {
+		t.Fatal(err)
+	}
+	link := filepath.Join(dir, "link.html")
+	if err := os.Symlink("real.html", link); err != nil {
+		t.Fatal(err)
+	}
+	mustRun(t, exitOK, "", "report", "--demo", "--detail", "1", "-o", link)
+	fi, err := os.Lstat(link)
+	if err != nil || fi.Mode()&os.ModeSymlink == 0 {
+		t.Fatalf("the link was replaced (%v)", err)
+	}
+	fi, _ = os.Stat(real)
+	if fi.Mode().Perm() != 0o600 || fi.Size() < 1000 {
+		t.Errorf("real.html: mode %v, %d bytes; want 0600 and the report", fi.Mode().Perm(), fi.Size())
+	}
+}
