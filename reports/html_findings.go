@@ -114,17 +114,17 @@ func upperFirst(s string) string {
 }
 
 func cyclesFinding(c *saturation.CyclesResult, rule saturation.CarbonateRule) string {
-	where := profileWords(c.Profile.Name) + ", with " + ruleWords(rule)
+	where := profileWords(c.Profile.Name) + ", at " + ruleWords(rule)
 	switch {
 	case len(c.Exceeded) > 0:
 		return fmt.Sprintf("Used as a cooling-tower makeup, this water would already be past the limit for %s: it needs "+
 			"treatment before it is concentrated. (Judged under %s, at %s.)", joinWords(exceededWords(c)),
 			profileWords(c.Profile.Name), ruleWords(rule))
 	case c.Limiting == "":
-		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration (%s).",
-			num(c.MaxCycles, 1), where)
+		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration. "+
+			"(Judged under %s.)", num(c.MaxCycles, 1), where)
 	}
-	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s (%s).",
+	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s. (Judged under %s.)",
 		num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
 }
 

@@ -58,8 +58,10 @@ td.nowrap { white-space: nowrap; }
 td.n, th.n { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 tbody tr:nth-child(even) td { background: #f8f9fb; }
 table.kv td:first-child { color: var(--muted); width: 46%; }
-table.kv td.v { font-variant-numeric: tabular-nums; }
-table.kv td.u { color: var(--muted); width: 1%; white-space: nowrap; }
+table.kv td.v { font-variant-numeric: tabular-nums; width: 30%; }
+table.kv td.u { color: var(--muted); }
+table.overview td:first-child { min-width: 11em; }
+table.overview td:last-child .chip, table.minerals td:last-child .chip { white-space: normal; }
 .cols { display: grid; grid-template-columns: 1fr 1fr; gap: 0 28px; }
 .chip { display: inline-block; padding: 1px 9px; border-radius: 10px; font-size: 12.5px; font-weight: 600; white-space: nowrap; border: 1px solid rgba(0,0,0,.12); }
 .b-under { background: #0072B2; color: #fff; } .b-near { background: #56B4E9; color: #000; }

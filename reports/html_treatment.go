@@ -97,7 +97,7 @@ func quantityLabel(q string) string {
 			parts = append(parts, strings.ReplaceAll(f, "_", " "))
 		}
 		if arg == "Mg_as_CaCO3*SiO2" {
-			return "magnesium silicate (Mg as CaCO₃ × SiO₂, mg/L)"
+			return "magnesium silicate (Mg as CaCO₃ × SiO₂)"
 		}
 		return "the product " + strings.Join(parts, " × ") + " (mg/L)"
 	}

@@ -58,7 +58,7 @@ func ruleWords(r saturation.CarbonateRule) string {
 	case r.SetPoint > 0:
 		return "acid dosed to hold pH " + num(r.SetPoint, 1) + ", its sulfate or chloride added"
 	case r.Name == "natural":
-		return "the pH an open tower settles at for its alkalinity (common practice)"
+		return "the pH an open tower settles at for its alkalinity, a common-practice relation"
 	case r.A != 0:
 		return "the pH from the tower's own relation, pH = " + num(r.A, 3) + "·log₁₀(alkalinity) " +
 			signedGap(r.B)
