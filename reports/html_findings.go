@@ -89,9 +89,16 @@ func (b *builder) passFindings(s *plan.Sample, sweep string, sw plan.Sweep, at f
 		past = "past its limit"
 	}
 	var parts []string
+	formulas := map[string]bool{}
 	for _, p := range s.Passes {
 		if p.Sweep != sweep {
 			continue
+		}
+		if e, ok := saturation.DefaultTable().Entry(p.Mineral); ok {
+			if formulas[e.Formula] {
+				continue // a polymorph of a mineral named already (aragonite after calcite)
+			}
+			formulas[e.Formula] = true
 		}
 		if p.AtStart {
 			parts = append(parts, mineralLabel(p.Mineral)+" (already at the start)")
