@@ -208,6 +208,7 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 			t.index[k] = v
 		}
 	}
+	seen := map[string]int{} // line of each name in this file
 	for {
 		rec, line, ok, err := nextRecord(cr, file, ncol, true)
 		if err != nil {
@@ -220,6 +221,11 @@ func ReadTable(file string, r io.Reader, base *Table) (*Table, error) {
 		if err != nil {
 			return nil, err
 		}
+		if first, dup := seen[e.Name]; dup {
+			return nil, &water.InputError{File: file, Line: line, Column: col["name"] + 1, Header: "name", Value: e.Name,
+				Err: fmt.Errorf("duplicate name (first on line %d)", first)}
+		}
+		seen[e.Name] = line
 		if err := t.add(e); err != nil {
 			return nil, &water.InputError{File: file, Line: line, Column: col["equation"] + 1, Header: "equation", Err: err}
 		}
@@ -289,6 +295,9 @@ func parseEntry(rec []string, col map[string]int, file string, line int) (Entry,
 	}
 	if e.TJB, err = num("b_tj", math.NaN()); err != nil {
 		return e, err
+	}
+	if h, err := checkEntry(&e); err != nil {
+		return e, bad(h, err)
 	}
 	if e.Phase != Master {
 		if e.terms, err = parseEquation(e.Equation); err != nil {

@@ -1,0 +1,40 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// TestBadTables runs every table of testdata/bad_tables (see its README)
+// and compares the exit status and the whole of standard error with the
+// file's .want. Before issue 12 the thermo rows but the unknown species
+// were accepted silently (exit 0).
+func TestBadTables(t *testing.T) {
+	files, err := filepath.Glob("../../testdata/bad_tables/*.csv")
+	if err != nil || len(files) == 0 {
+		t.Fatalf("no bad tables (%v)", err)
+	}
+	for _, f := range files {
+		want, err := os.ReadFile(strings.TrimSuffix(f, ".csv") + ".want")
+		if err != nil {
+			t.Fatal(err)
+		}
+		status, stderr, _ := strings.Cut(string(want), "\n")
+		stderr = strings.ReplaceAll(stderr, "FILE", f)
+		var args []string
+		switch base := filepath.Base(f); {
+		case strings.HasPrefix(base, "thermo_"):
+			args = []string{"assess", "--demo", "--thermo", f}
+		case strings.HasPrefix(base, "limits_"):
+			args = []string{"cycles", "--demo", "--limits", f}
+		default:
+			t.Fatalf("%s: no command for this kind of table", f)
+		}
+		r := runCLI(t, "", args...)
+		if got := "exit " + string(rune('0'+r.code)); got != status || r.stderr != stderr {
+			t.Errorf("%s: %s\n%s\nwant %s\n%s", filepath.Base(f), got, r.stderr, status, stderr)
+		}
+	}
+}
