@@ -31,7 +31,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			"Values below the detection limit (\"<0.1\") are taken as half the limit unless\n" +
 			"--below-detection says zero or limit.\n\n" +
 			"Exit status: 0 all samples computed; 2 bad input (the good samples are still\n" +
-			"written); 1 a sample could not be computed.\n\n" + reports.Caution,
+			"written); 1 a sample could not be computed (1 wins over 2).\n\n" + reports.Caution,
 		RunE: func(cmd *cobra.Command, args []string) error {
 			format, opt, ropt, err := c.setup(cmd)
 			if err != nil {

@@ -399,18 +399,21 @@ func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadO
 	if len(probs) > 0 {
 		return water.Analysis{}, badInput(probs[0])
 	}
+	// By position every row counts and a bad row picked is an error at
+	// its line and column (it is not skipped for the next good one); by
+	// name, a bad row of that name is.
 	seen := 0
 	for _, r := range records {
-		if r.Err != nil {
-			continue
-		}
 		seen++
 		if (choice.name == "" && seen == choice.nth) || (choice.name != "" && r.Name == choice.name) {
+			if r.Err != nil {
+				return water.Analysis{}, badInput(r.Err)
+			}
 			return r.Analysis, nil
 		}
 	}
 	if choice.name == "" {
-		return water.Analysis{}, badInput(fmt.Errorf("%s: not enough good samples", in.name))
+		return water.Analysis{}, badInput(fmt.Errorf("%s: fewer than %d samples", in.name, choice.nth))
 	}
 	return water.Analysis{}, badInput(fmt.Errorf("%s: no good sample named %q", in.name, choice.name))
 }

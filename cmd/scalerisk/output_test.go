@@ -80,3 +80,43 @@ func TestReportOutputKeepsFile(t *testing.T) {
 		t.Errorf("real.html: mode %v, %d bytes; want 0600 and the report", fi.Mode().Perm(), fi.Size())
 	}
 }
+
+// TestWorstExitWins: a sample that could not be computed (exit 1) is not
+// hidden by a bad row elsewhere (exit 2); before issue 12 bad input won.
+func TestWorstExitWins(t *testing.T) {
+	for _, tc := range []struct {
+		problems, failures, want int
+	}{{0, 0, exitOK}, {3, 0, exitBadInput}, {0, 1, exitInternal}, {3, 1, exitInternal}} {
+		r := &runner{problems: tc.problems, failures: tc.failures}
+		code := exitOK
+		if err := r.exit(); err != nil {
+			code = err.(*exitError).code
+		}
+		if code != tc.want {
+			t.Errorf("%d problems, %d failures: exit %d, want %d", tc.problems, tc.failures, code, tc.want)
+		}
+	}
+}
+
+// TestPartnerBadFirstRow: a partner file whose first row is bad is an
+// error at that row for blend and report --blend-with (before: skipped
+// silently, the second row blended, exit 0).
+func TestPartnerBadFirstRow(t *testing.T) {
+	dir := t.TempDir()
+	partner := filepath.Join(dir, "partner.csv")
+	lab := "name,temperature [C],pH,Ca [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\n" +
+		"bad,25,7.8,-3,100,150\ngood,25,7.8,80,100,150\n"
+	if err := os.WriteFile(partner, []byte(lab), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	want := "scalerisk: " + partner + `:2:4: column "Ca [mg/L]": value "-3": negative concentration` + "\n"
+	for _, args := range [][]string{
+		{"blend", "--demo", partner, "--fraction", "0.5"},
+		{"report", "--demo", "--blend-with", partner, "-o", filepath.Join(dir, "r.html")},
+	} {
+		r := mustRun(t, exitBadInput, "", args...)
+		if r.stderr != want {
+			t.Errorf("%v: stderr %q, want %q", args[0], r.stderr, want)
+		}
+	}
+}

@@ -56,7 +56,8 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 			"The file is written whole or not at all (a temporary file, then a rename); -o - writes to\n" +
 			"standard output.\n\n" +
 			"Exit status: 0 all samples computed; 2 bad input (the report is still written with the\n" +
-			"good samples and lists the bad ones); 1 a sample could not be computed or writing failed.\n\n" +
+			"good samples and lists the bad ones; also an -o that is not a regular file or is an input);\n" +
+			"1 a sample could not be computed or writing failed (1 wins over 2).\n\n" +
 			reports.Caution,
 		Args: cobra.ArbitraryArgs,
 		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },

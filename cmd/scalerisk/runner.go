@@ -51,15 +51,18 @@ func (r *runner) sampleError(file string, line int, err error) {
 	}
 }
 
-// exit maps the tally to the command's error: exit status 2 for bad input,
-// else 1 for failures, else success (nil). The messages have been printed.
+// exit maps the tally to the command's error by the worst thing that
+// happened: exit status 1 when a sample could not be computed (even when
+// other rows were bad input: a failure the user cannot fix by correcting
+// the file must not hide behind one they can), else 2 for bad input, else
+// success (nil). The messages have been printed.
 func (r *runner) exit() error {
 	r.progress.clear()
 	switch {
-	case r.problems > 0:
-		return &exitError{code: exitBadInput, err: fmt.Errorf("%d input problem(s)", r.problems), quiet: true}
 	case r.failures > 0:
 		return &exitError{code: exitInternal, err: fmt.Errorf("%d sample(s) could not be computed", r.failures), quiet: true}
+	case r.problems > 0:
+		return &exitError{code: exitBadInput, err: fmt.Errorf("%d input problem(s)", r.problems), quiet: true}
 	}
 	return nil
 }
