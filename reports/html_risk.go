@@ -75,9 +75,10 @@ func (b *builder) bandText(bd saturation.Band) string {
 func (b *builder) bandMeaning(bd saturation.Band) string {
 	switch bd {
 	case saturation.Undersaturated:
-		return "SI below −0.2: the water dissolves the mineral rather than depositing it."
+		return "SI below " + signed(-saturation.NearEquilibriumSI, 1) + ": the water dissolves the mineral rather than depositing it."
 	case saturation.NearEquilibrium:
-		return "SI from −0.2 to +0.2: close to balance; small changes tip it either way."
+		return "SI from " + signed(-saturation.NearEquilibriumSI, 1) + " to " + signed(saturation.NearEquilibriumSI, 1) +
+			": close to balance; small changes tip it either way."
 	case saturation.SlowToForm:
 		return "Supersaturated, but the mineral rarely forms as scale at these temperatures."
 	case saturation.Supersaturated:
