@@ -43,6 +43,37 @@ type SampleJSON struct {
 	BelowDetection []string            `json:"below_detection,omitempty"`
 	Warnings       []string            `json:"warnings"`
 	Error          *string             `json:"error"`
+	// OtherAnalytes are the laboratory's values the equilibrium does not
+	// use (turbidity, TOC, total hardness …), as written, in file order.
+	OtherAnalytes []OtherAnalyteJSON `json:"other_analytes,omitempty"`
+}
+
+// OtherAnalyteJSON is one value of a column the equilibrium does not use:
+// the column's header, the known measurement it names (left out when the
+// column is not recognised) and the cell as written.
+type OtherAnalyteJSON struct {
+	Column string `json:"column"`
+	Name   string `json:"name,omitempty"`
+	Value  string `json:"value"`
+}
+
+// otherAnalytes returns the JSON form of a sample's other values.
+func otherAnalytes(vs []water.OtherValue) []OtherAnalyteJSON {
+	var out []OtherAnalyteJSON
+	for _, v := range vs {
+		out = append(out, OtherAnalyteJSON(v))
+	}
+	return out
+}
+
+// otherAnalytesCell is the CSV cell of a sample's other values:
+// "column=value" joined by "; ".
+func otherAnalytesCell(vs []OtherAnalyteJSON) string {
+	cells := make([]string, len(vs))
+	for i, v := range vs {
+		cells[i] = v.Column + "=" + v.Value
+	}
+	return strings.Join(cells, "; ")
 }
 
 // IndicesJSON holds the classic indices; a key is left out where the
@@ -146,6 +177,7 @@ func sample(as saturation.Assessment, full bool) SampleJSON {
 	s.ChargeBalancePercent = optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) })
 	s.Quality = qualityJSON(q)
 	s.BelowDetection = as.Input.BelowDetection
+	s.OtherAnalytes = otherAnalytes(as.Input.Other)
 	s.Warnings = append(s.Warnings, as.Input.Warnings...)
 	s.Totals = totals(as.Input)
 	r := as.Result
@@ -291,7 +323,7 @@ func assessHeader(minerals []string) []string {
 	for _, m := range minerals {
 		header = append(header, "si_"+m)
 	}
-	return append(header, "error", "warnings")
+	return append(header, "error", "warnings", "other_analytes")
 }
 
 // notDefined is what the text and CSV writers say for an index that is not
@@ -331,7 +363,8 @@ func assessRow(a saturation.Assessment, minerals []string) []string {
 	if s.Error != nil {
 		errText = *s.Error
 	}
-	return append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "))
+	return append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "),
+		otherAnalytesCell(s.OtherAnalytes))
 }
 
 func strOrBlank(p *string) string {

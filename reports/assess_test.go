@@ -162,7 +162,7 @@ func TestCSVColumns(t *testing.T) {
 		t.Fatalf("%d CSV rows, want a header and 3 samples", len(rows))
 	}
 	header := rows[0]
-	want := 9 + 7 + len(water.Components()) + 4 + 2 // fixed, 7 indices, totals, 4 minerals, error and warnings
+	want := 9 + 7 + len(water.Components()) + 4 + 3 // fixed, 7 indices, totals, 4 minerals, error, warnings and other analytes
 	if len(header) != want {
 		t.Errorf("header has %d columns, want %d: %v", len(header), want, header)
 	}
@@ -172,8 +172,8 @@ func TestCSVColumns(t *testing.T) {
 			t.Errorf("header lacks %q", col)
 		}
 	}
-	if header[0] != "name" || !slices.Equal(header[len(header)-2:], []string{"error", "warnings"}) {
-		t.Errorf("header = %v, want name first and error, warnings last", header)
+	if header[0] != "name" || !slices.Equal(header[len(header)-3:], []string{"error", "warnings", "other_analytes"}) {
+		t.Errorf("header = %v, want name first and error, warnings, other_analytes last", header)
 	}
 	for i, row := range rows[1:] {
 		if len(row) != len(header) {

@@ -63,6 +63,15 @@ type Analysis struct {
 	MeasuredTDS          float64
 	MeasuredConductivity float64
 
+	// Other holds the laboratory's values that the equilibrium does not use
+	// (turbidity, TOC, free chlorine, total hardness …), as written, in file
+	// order; nil when there are none. Read only.
+	Other []OtherValue
+	// TotalHardness and PAlkalinity are the reported total hardness and
+	// P-alkalinity, mg/L as CaCO3, used only in data-quality checks; NaN
+	// when not given (or for a transformed water).
+	TotalHardness, PAlkalinity float64
+
 	// Entered holds the analyte values as the laboratory reported them, in
 	// their own units, in file order (nil for a transformed water).
 	Entered []Measurement
@@ -83,6 +92,7 @@ func (a Analysis) Clone() Analysis {
 	b.BelowDetection = append([]string(nil), a.BelowDetection...)
 	b.Entered = append([]Measurement(nil), a.Entered...)
 	b.Warnings = append([]string(nil), a.Warnings...)
+	b.Other = append([]OtherValue(nil), a.Other...)
 	return b
 }
 
@@ -143,6 +153,11 @@ type Sample struct {
 	Conductivity  float64 // µS/cm
 	Pressure      float64 // atm
 	Measurements  []Measurement
+	// Other holds the cells of the columns the equilibrium does not use, in
+	// file order; TotalHardness and PAlkalinity (mg/L as CaCO3; NaN when not
+	// given) are two of them read as numbers for data-quality checks.
+	Other                      []OtherValue
+	TotalHardness, PAlkalinity float64
 	// Uncertainty holds the sample's own standard uncertainties, keyed by
 	// UncertaintyKey ("Ca", "S", "alkalinity") or "pH" and "temperature":
 	// a fraction of the value, pH units or °C; nil when none are given.
@@ -153,7 +168,7 @@ type Sample struct {
 func NewSample(name string) Sample {
 	nan := math.NaN()
 	return Sample{Name: name, Temperature: nan, PH: nan, PHTemperature: nan,
-		Density: nan, TDS: nan, Conductivity: nan, Pressure: nan}
+		Density: nan, TDS: nan, Conductivity: nan, Pressure: nan, TotalHardness: nan, PAlkalinity: nan}
 }
 
 // Analysis converts the sample to mol/kg of water. Per-litre values are
@@ -174,6 +189,7 @@ func (s Sample) analysis(forms *AnalyteTable, entered []Measurement) (Analysis, 
 		PHTemperature: s.PHTemperature, Pressure: s.Pressure,
 		Alkalinity: math.NaN(), CarbonateAlkalinity: math.NaN(), FreeCO2: math.NaN(),
 		MeasuredTDS: s.TDS, MeasuredConductivity: s.Conductivity,
+		Other: s.Other, TotalHardness: s.TotalHardness, PAlkalinity: s.PAlkalinity,
 		Entered: entered}
 	if math.IsNaN(a.Temperature) {
 		a.Temperature = 25

@@ -27,6 +27,7 @@ const (
 	fieldPressure
 	fieldAnalyte
 	fieldUncertainty // a sample's own uncertainty of a value (csv_uncertainty.go)
+	fieldOther       // a column the equilibrium does not use, passed through (csv_other.go)
 )
 
 var fieldLabels = [...]string{
@@ -91,6 +92,7 @@ type headerColumn struct {
 	unit    Unit
 	press   pressureUnit
 	uKey    string      // what an uncertainty column qualifies (UncertaintyKey)
+	other   string      // fieldOther: the lab measurement it names, "" when not recognised
 	problem *InputError // non-nil when the column cannot be used
 }
 
@@ -101,6 +103,11 @@ func (c headerColumn) key() string {
 		return "analyte " + c.analyte.Name
 	case fieldUncertainty:
 		return "uncertainty " + c.uKey
+	case fieldOther:
+		if c.other != "" && c.analyte != nil {
+			return "lab " + c.other
+		}
+		return "other " + strconv.Itoa(c.index) + " " + c.label
 	}
 	return "field " + strconv.Itoa(int(c.kind))
 }
@@ -120,6 +127,8 @@ func (c headerColumn) name() string {
 		return c.analyte.Name
 	case fieldUncertainty:
 		return "the uncertainty of " + c.uKey
+	case fieldOther:
+		return c.label
 	}
 	return fieldLabels[c.kind]
 }
@@ -166,9 +175,10 @@ func (rd *reader) knownLabel(label string) bool {
 }
 
 // classify decides what label with unit text unit (hasUnit false when none
-// is written) holds. It returns the column with kind fieldUnknown when label
-// is not known; a non-nil error says why the column cannot be used, and
-// unitFault whether its unit (rather than its label) is at fault.
+// is written) holds. It returns the column with kind fieldOther when label
+// names neither a field nor an analyte (classifyOther); a non-nil error says
+// why the column cannot be used, and unitFault whether its unit (rather than
+// its label) is at fault.
 func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, unitFault bool, err error) {
 	c.label = label
 	if label == "" && !hasUnit {
@@ -185,7 +195,7 @@ func (rd *reader) classify(label, unit string, hasUnit bool) (c headerColumn, un
 	} else if a, ok := rd.table.Lookup(label); ok {
 		c.kind, c.analyte = fieldAnalyte, &a
 	} else {
-		return c, false, errUnknownColumn
+		return rd.classifyOther(label, unit, hasUnit), false, nil
 	}
 	switch c.kind {
 	case fieldName, fieldDate, fieldComment, fieldRole, fieldSystem:

@@ -217,6 +217,10 @@ type longReader struct {
 	layout longLayout
 	groups []*longSampleGroup
 	byKey  map[[2]string]*longSampleGroup
+	// known and unknown are the other analytes met (csv_other.go), quoted,
+	// each once, for the file's note.
+	known, unknown []string
+	otherSeen      map[string]bool
 }
 
 // openLong reads a whole long-form file, whose rows are grouped into samples
@@ -238,6 +242,9 @@ func (rd *reader) openLong(header []string, headerLine int) (func() (Record, err
 	}
 	if dec.fatal != nil {
 		return nil, nil, dec.fatal
+	}
+	if note := rd.notUsedNote(headerLine, lr.known, lr.unknown); note != nil {
+		problems = append(problems, note)
 	}
 	groups := lr.groups
 	next := func() (Record, error) {
@@ -354,8 +361,38 @@ func (lr *longReader) add(row longRow) {
 		g.fail(lr.cellError(row, longQualifier, row.Qualifier, err))
 		return
 	}
+	if c.kind == fieldOther {
+		if qual != "" && qual != "=" && !strings.HasPrefix(strings.TrimSpace(v.raw), qual) {
+			v.raw = strings.TrimSpace(qual + " " + v.raw)
+		}
+		lr.addOther(g, c, label, unit, v)
+		return
+	}
 	if err := g.b.set(c, v, rd.policy); err != nil {
 		g.fail(lr.cellError(row, longValue, row.Value.raw, fmt.Errorf("%s: %w", label, err)))
+	}
+}
+
+// addOther keeps a row of an analyte the equilibrium does not use in its
+// sample, its value written with the row's qualifier, and notes the analyte
+// for the file's note.
+func (lr *longReader) addOther(g *longSampleGroup, c headerColumn, label, unit string, v cellValue) {
+	c.header = label
+	if unit != "" {
+		c.header += " [" + unit + "]"
+	}
+	g.b.setOther(c, v, lr.rd.table)
+	if lr.otherSeen == nil {
+		lr.otherSeen = map[string]bool{}
+	}
+	if lr.otherSeen[label] {
+		return
+	}
+	lr.otherSeen[label] = true
+	if c.other != "" {
+		lr.known = append(lr.known, strconv.Quote(clipText(label)))
+	} else {
+		lr.unknown = append(lr.unknown, strconv.Quote(clipText(label)))
 	}
 }
 

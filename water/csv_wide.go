@@ -23,7 +23,7 @@ func (rd *reader) wideColumns(header []string, line int) ([]headerColumn, []erro
 		}
 		c, _, err := rd.classify(label, unit, hasUnit)
 		c.index, c.header = i+1, h
-		if c.kind != fieldUnknown && c.kind != fieldBlank {
+		if c.kind != fieldUnknown && c.kind != fieldBlank && c.kind != fieldOther {
 			recognised = true
 		}
 		if err == nil && c.kind != fieldBlank && c.kind != fieldComment && c.kind != fieldName && c.kind != fieldDate && c.kind != fieldRole && c.kind != fieldSystem {
@@ -52,6 +52,9 @@ func (rd *reader) openWide(header []string, headerLine int) (func() (Record, err
 	cols, problems, ok := rd.wideColumns(header, headerLine)
 	if !ok {
 		return nil, nil, rd.fileError(headerLine, errNoHeader)
+	}
+	if note := rd.otherNote(cols, headerLine); note != nil {
+		problems = append(problems, note)
 	}
 	nameCol := -1
 	for i, c := range cols {
@@ -133,6 +136,9 @@ func (rd *reader) wideRecord(cols []headerColumn, fields []string, name func([]s
 		case c.kind == fieldBlank:
 			err = errNoHeaderName
 		case c.kind == fieldName:
+			continue
+		case c.kind == fieldOther:
+			b.setOther(c, v, rd.table)
 			continue
 		default:
 			err = b.set(c, v, rd.policy)

@@ -80,7 +80,6 @@ var (
 	errUTF16          = errors.New("file is utf-16 text: save it as csv utf-8")
 	errNegative       = errors.New("negative concentration")
 	errAboveRange     = errors.New("above range: dilute and re-measure")
-	errUnknownColumn  = errors.New("unknown column: not a known analyte or field")
 	errNoHeaderName   = errors.New("value in a column with no header")
 	errBlankSample    = errors.New("sample name is blank")
 	errBlankAnalyte   = errors.New("analyte is blank")

@@ -211,6 +211,7 @@ func (a Analysis) Quality() Quality {
 	q.addEstimates()
 	q.checkRatios()
 	q.checkIonicStrengthEstimates()
+	q.checkLab(a)
 	return q
 }
 

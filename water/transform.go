@@ -83,9 +83,12 @@ func reestimateDensity(a Analysis, b *Analysis) {
 
 // afterTransform marks the fields of b that a transformation invalidates:
 // the pH (to be recomputed at b's temperature), the carbonate part of the
-// alkalinity, and the measured TDS and conductivity.
+// alkalinity, the measured TDS and conductivity, and the laboratory's
+// values the equilibrium does not use.
 func afterTransform(b *Analysis) {
 	b.Entered = nil
+	b.Other = nil
+	b.TotalHardness, b.PAlkalinity = math.NaN(), math.NaN()
 	b.PH = math.NaN()
 	b.PHTemperature = b.Temperature
 	b.CarbonateAlkalinity = math.NaN()

@@ -396,8 +396,10 @@ func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadO
 	if err != nil {
 		return water.Analysis{}, badInput(err)
 	}
-	if len(probs) > 0 {
-		return water.Analysis{}, badInput(probs[0])
+	for _, p := range probs {
+		if !errors.Is(p, water.ErrNotUsed) {
+			return water.Analysis{}, badInput(p)
+		}
 	}
 	// By position every row counts and a bad row picked is an error at
 	// its line and column (it is not skipped for the next good one); by

@@ -29,12 +29,16 @@ type runner struct {
 	failures int       // samples that could not be computed
 }
 
-// problem reports a fault of the input on stderr and counts it.
+// problem reports a fault of the input on stderr and counts it; a note
+// on columns not used in the equilibrium (water.ErrNotUsed) is reported
+// and not counted.
 func (r *runner) problem(err error) {
 	r.flush() // the output of the samples before it first; an error resurfaces at the next flush
 	r.progress.clear()
 	fmt.Fprintln(r.stderr, err)
-	r.problems++
+	if !errors.Is(err, water.ErrNotUsed) {
+		r.problems++
+	}
 }
 
 // sampleError reports the error of a sample computed from a good row,

@@ -1,0 +1,46 @@
+package main
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+// TestLabExport: an invented Kestrel Fen lab export with turbidity, TOC,
+// free chlorine, colour, total hardness, P- and M-alkalinity and a column
+// the reader does not know is assessed without editing: every sample is
+// computed (exit 0), the columns are named once on stderr as not used in
+// the equilibrium, and the values come through in JSON and CSV.
+func TestLabExport(t *testing.T) {
+	const file = "testdata/kestrel_fen_lab.csv"
+	r := mustRun(t, 0, "", "assess", file, "--format", "json")
+	if n := strings.Count(r.stderr, "not used in the equilibrium"); n != 1 || !strings.Contains(r.stderr, `"Turbidity [NTU]"`) {
+		t.Errorf("stderr names the other columns %d times, want once:\n%s", n, r.stderr)
+	}
+	var doc struct {
+		Samples []struct {
+			Name          string
+			Error         *string
+			OtherAnalytes []struct{ Column, Name, Value string } `json:"other_analytes"`
+			Quality       struct{ Flags []string }
+		}
+	}
+	if err := json.Unmarshal([]byte(r.stdout), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Samples) != 4 {
+		t.Fatalf("%d samples, want 4", len(doc.Samples))
+	}
+	first := doc.Samples[0]
+	if first.Error != nil || len(first.OtherAnalytes) != 7 || first.OtherAnalytes[2].Column != "Turbidity [NTU]" ||
+		first.OtherAnalytes[2].Name != "turbidity" || first.OtherAnalytes[2].Value != "0.8" {
+		t.Errorf("first sample: error %v, other_analytes %+v", first.Error, first.OtherAnalytes)
+	}
+	if flags := strings.Join(doc.Samples[1].Quality.Flags, "\n"); !strings.Contains(flags, "total hardness 180 mg/L as CaCO3 differs from Ca + Mg") {
+		t.Errorf("tower A: no hardness flag in\n%s", flags)
+	}
+	csvOut := mustRun(t, 0, "", "assess", file, "--format", "csv").stdout
+	if !strings.Contains(csvOut, "Turbidity [NTU]=0.8; TOC [mg/L]=2.1") {
+		t.Errorf("CSV lacks the other analytes:\n%s", csvOut)
+	}
+}

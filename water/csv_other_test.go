@@ -1,0 +1,130 @@
+package water_test
+
+import (
+	"errors"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+
+	"scalerisk/water"
+)
+
+// TestReadLabExport reads an invented laboratory export of the Kestrel Fen
+// plant with the columns a laboratory sends besides the speciated ones:
+// every sample is computed, the other columns are kept as written, noted
+// once, and total hardness and P-alkalinity are checked.
+func TestReadLabExport(t *testing.T) {
+	const path = "testdata/lab/kestrel_fen_lab.csv"
+	records, problems, err := csvReadFile(t, path, water.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(problems) != 1 || !errors.Is(problems[0], water.ErrNotUsed) {
+		t.Fatalf("problems %v, want one note wrapping ErrNotUsed", problems)
+	}
+	wantNote := path + `:1: "P-alkalinity [mg/L as CaCO3]", "Total hardness [mg/L as CaCO3]", "Turbidity [NTU]", "TOC [mg/L]", ` +
+		`"Free chlorine [mg/L]", "Colour [Hazen]" kept and passed through; "Sampled by" not recognised`
+	if !strings.HasPrefix(problems[0].Error(), wantNote) || !strings.HasSuffix(problems[0].Error(), "(not used in the equilibrium)") {
+		t.Errorf("note:\n%s\nwant it to start\n%s", problems[0], wantNote)
+	}
+	if len(records) != 4 {
+		t.Fatalf("%d records, want 4", len(records))
+	}
+	for _, r := range records {
+		if r.Err != nil {
+			t.Fatalf("%s: %v", r.Name, r.Err)
+		}
+	}
+	first := records[0].Analysis
+	wantOther := []water.OtherValue{
+		{Column: "P-alkalinity [mg/L as CaCO3]", Name: "P-alkalinity", Value: "0"},
+		{Column: "Total hardness [mg/L as CaCO3]", Name: "total hardness", Value: "250"},
+		{Column: "Turbidity [NTU]", Name: "turbidity", Value: "0.8"},
+		{Column: "TOC [mg/L]", Name: "TOC", Value: "2.1"},
+		{Column: "Free chlorine [mg/L]", Name: "free chlorine", Value: "0.3"},
+		{Column: "Colour [Hazen]", Name: "colour", Value: "5"},
+		{Column: "Sampled by", Value: "R. Alder"},
+	}
+	if !reflect.DeepEqual(first.Other, wantOther) {
+		t.Errorf("other values\n%+v\nwant\n%+v", first.Other, wantOther)
+	}
+	// Ammonia is an analyte (data/analytes.csv), not passed through.
+	if !first.Measured[water.NH4] {
+		t.Errorf("ammonia-N not read as the NH4 component")
+	}
+	if got := records[2].Analysis.Other; len(got) != 3 || got[2] != (water.OtherValue{Column: "TOC [mg/L]", Name: "TOC", Value: "n.d."}) {
+		t.Errorf("tower B other values %+v, want P-alkalinity, turbidity and TOC as written", got)
+	}
+	const tol = 1e-9 // mg/L as CaCO3: read as written
+	if th := first.TotalHardness; math.Abs(th-250) > tol || !math.IsNaN(records[2].Analysis.TotalHardness) {
+		t.Errorf("total hardness %g and %g, want 250 and NaN (blank)", th, records[2].Analysis.TotalHardness)
+	}
+	// Expected flags: hardness by calculation 2.497 Ca + 4.118 Mg (Standard
+	// Methods 2340 B, from memory): 249 mg/L for the makeup (agrees with
+	// 250), 747.5 for the towers (tower A reports 180: flagged); P-alkalinity
+	// above M (side stream) and at pH 7.6 (tower B) flagged.
+	for i, want := range []string{"", "total hardness 180 mg/L as CaCO3 differs from Ca + Mg (748", "P-alkalinity 20 mg/L as CaCO3 at pH 7.60", "P-alkalinity 150 mg/L as CaCO3 exceeds the total (M-) alkalinity 120"} {
+		var lab []string
+		for _, f := range records[i].Analysis.Quality().Flags {
+			if strings.Contains(f, "hardness") || strings.Contains(f, "P-alkalinity") {
+				lab = append(lab, f)
+			}
+		}
+		switch {
+		case want == "" && len(lab) > 0:
+			t.Errorf("%s: lab flags %q, want none", records[i].Name, lab)
+		case want != "" && (len(lab) != 1 || !strings.HasPrefix(lab[0], want)):
+			t.Errorf("%s: lab flags %q, want one starting %q", records[i].Name, lab, want)
+		}
+	}
+}
+
+// TestReadLabExportLong reads the long form of an invented Kestrel Fen
+// export: an analyte the equilibrium does not use is kept with its
+// qualifier, an unknown one too, and noted once.
+func TestReadLabExportLong(t *testing.T) {
+	records, problems, err := csvReadFile(t, "testdata/lab/kestrel_fen_long.csv", water.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(problems) != 1 || !errors.Is(problems[0], water.ErrNotUsed) ||
+		!strings.Contains(problems[0].Error(), `"total hardness", "turbidity", "TOC" kept and passed through; "Batch code" not recognised`) {
+		t.Fatalf("problems %v, want one note naming the other analytes", problems)
+	}
+	if len(records) != 1 || records[0].Err != nil {
+		t.Fatalf("records %+v, want one good sample", records)
+	}
+	a := records[0].Analysis
+	a.Totals[water.C], a.CarbonKnown = a.Alkalinity, true // as if speciated; the carbon plays no part here
+	want := []water.OtherValue{
+		{Column: "total hardness [mg/L as CaCO3]", Name: "total hardness", Value: "250"},
+		{Column: "turbidity [NTU]", Name: "turbidity", Value: "0.8"},
+		{Column: "TOC [mg/L]", Name: "TOC", Value: "< 0.5"},
+		{Column: "Batch code", Value: "K-17"},
+	}
+	if !reflect.DeepEqual(a.Other, want) {
+		t.Errorf("other values\n%+v\nwant\n%+v", a.Other, want)
+	}
+	if math.Abs(a.TotalHardness-250) > 1e-9 {
+		t.Errorf("total hardness %g, want 250", a.TotalHardness)
+	}
+}
+
+// TestTransformDropsLabValues: a blend is not the sample, so its lab
+// values (and the hardness check on them) go.
+func TestTransformDropsLabValues(t *testing.T) {
+	records, _, err := csvReadFile(t, "testdata/lab/kestrel_fen_lab.csv", water.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	a := records[0].Analysis
+	a.Totals[water.C], a.CarbonKnown = a.Alkalinity, true // as if speciated; the carbon plays no part here
+	b, err := water.Blend([]water.Analysis{a, a}, []float64{0.5, 0.5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if b.Other != nil || !math.IsNaN(b.TotalHardness) || !math.IsNaN(b.PAlkalinity) {
+		t.Errorf("blend keeps lab values: %+v %g %g", b.Other, b.TotalHardness, b.PAlkalinity)
+	}
+}
