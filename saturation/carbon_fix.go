@@ -77,7 +77,14 @@ func (sp *Speciator) fixCarbon(s *solver, cs *carbonStep, a water.Analysis, opt 
 		p.cRow = rowMass
 	}
 	if err := s.solve(p, true); err != nil {
-		return fixFailure(s, p, a, cs.alk, err)
+		q, ok := noCarbon(s, p, cs.alk)
+		if !ok {
+			return fixFailure(s, p, a, cs.alk, err)
+		}
+		p = q
+		cs.warnings = append(cs.warnings, fmt.Sprintf(
+			"alkalinity %.4g mg/L as CaCO3 is within %.2g mg/L as CaCO3 (a titration's usual reporting limit) of what pH %.4g gives with no carbonate: the water is taken to hold no inorganic carbon",
+			1000*cs.alk*water.EquivalentMassCaCO3, 1000*alkResolution*water.EquivalentMassCaCO3, a.PH))
 	}
 	c1, alk1, co2 := carbonState(s)
 	cs.warnings = append(cs.warnings, fixWarnings(s, p, a, cs, c1, co2)...)
@@ -87,6 +94,30 @@ func (sp *Speciator) fixCarbon(s *solver, cs *carbonStep, a water.Analysis, opt 
 	sp.fix = carbonFix{key: key, carbon: cs.carbon, alk: cs.alk, warnings: slices.Clone(cs.warnings)}
 	sp.fixCached = true
 	return nil
+}
+
+// alkResolution is the alkalinity a titration cannot tell from zero,
+// eq/kg: 0.02 meq/kg, 1 mg/L as CaCO3, the usual reporting limit of a
+// titrated alkalinity (common practice).
+const alkResolution = 0.02e-3
+
+// noCarbon solves problem p (carbon from alkalinity alk, which failed)
+// with no inorganic carbon instead, and reports whether that fits: the
+// species other than carbonate at the measured pH (hydroxide, silicate,
+// borate, phosphate) give at least alk and at most alk plus
+// alkResolution. Pure water at pH 7 with alkalinity 0 is such a water.
+// On success s holds the solution.
+func noCarbon(s *solver, p problem, alk float64) (problem, bool) {
+	if p.cRow != rowAlk {
+		return p, false
+	}
+	q := p
+	q.cRow = rowAbsent
+	if s.solve(q, false) != nil {
+		return p, false
+	}
+	_, other, _ := carbonState(s)
+	return q, other >= alk && other-alk <= alkResolution
 }
 
 // fixFailure explains a failed carbon fix (problem p, error err): is the
