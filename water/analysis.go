@@ -216,11 +216,12 @@ func (s Sample) analysis(forms *AnalyteTable, entered []Measurement) (Analysis, 
 
 // sampleAmount is one measurement of a sample as an amount of its component.
 type sampleAmount struct {
-	comp  string
-	mol   float64 // component mol (eq for alkalinity) per basis
-	basis Basis
-	mass  float64 // g of dissolved solid per mol of component, for TDS
-	name  string
+	comp   string
+	mol    float64 // component mol (eq for alkalinity) per basis
+	basis  Basis
+	mass   float64 // g of dissolved solid per mol of component, for TDS
+	name   string
+	column string // the header it came from
 }
 
 // amounts converts the measurements of s to amounts of their components
@@ -240,7 +241,7 @@ func (s Sample) amounts(forms *AnalyteTable, a *Analysis) ([]sampleAmount, error
 			// Weighed as HCO3 per equivalent for the density estimate.
 			mass = 61.016
 		}
-		amounts = append(amounts, sampleAmount{m.Analyte.Component, mol, m.Unit.Basis, mass, m.Analyte.Name})
+		amounts = append(amounts, sampleAmount{m.Analyte.Component, mol, m.Unit.Basis, mass, m.Analyte.Name, m.Column})
 		if m.BelowDetection {
 			a.BelowDetection = append(a.BelowDetection,
 				fmt.Sprintf("%s <%g %s taken as %g", m.Column, m.Limit, m.Unit.Text, m.Value))
@@ -248,6 +249,15 @@ func (s Sample) amounts(forms *AnalyteTable, a *Analysis) ([]sampleAmount, error
 	}
 	return amounts, nil
 }
+
+// MaxDissolvedSolids bounds the dissolved solids of a water, g/L: a
+// water above it is bad input. Calcium chloride, the most soluble salt of
+// natural brines, saturates at about 81 g per 100 g of water at 25 °C,
+// some 650 g/L of solution; sodium chloride at 36 g per 100 g, about
+// 320 g/L (CRC Handbook solubility tables, from memory). A water past 700
+// g/L is beyond any of them by a wide margin: a unit or a decimal point is
+// wrong.
+const MaxDissolvedSolids = 700
 
 // waterPerLitre returns the density rho (kg/L; the given density, or
 // EstimateDensity when it is NaN) and the mass of water per litre of
@@ -261,16 +271,25 @@ func waterPerLitre(amounts []sampleAmount, density, t float64) (rho, wpl float64
 	}
 	wpl = rho
 	for iter := 0; iter < 50; iter++ {
-		tds := 0.0 // g/L
+		tds, most, largest := 0.0, 0.0, "" // g/L; the largest share and its column
 		for _, am := range amounts {
-			tds += am.mol * am.mass * perLitre(am.basis, wpl, rho)
+			g := am.mol * am.mass * perLitre(am.basis, wpl, rho)
+			tds += g
+			if g > most {
+				most, largest = g, am.column
+			}
 		}
 		if estimated {
 			rho = EstimateDensity(tds, t)
 		}
 		next := rho - tds/1000
-		if next <= 0.05 {
-			return 0, 0, fmt.Errorf("dissolved solids of %.0f g/L leave no water in a litre of density %.3f kg/L", tds, rho)
+		switch {
+		case tds > MaxDissolvedSolids:
+			return 0, 0, fmt.Errorf("column %q: dissolved solids of %.4g g/L (%.4g g/L from this column) are beyond any salt's solubility (at most %d g/L)",
+				largest, tds, most, MaxDissolvedSolids)
+		case next <= 0.05:
+			return 0, 0, fmt.Errorf("column %q: dissolved solids of %.4g g/L (%.4g g/L from this column) leave no water in a litre of density %.4g kg/L",
+				largest, tds, most, rho)
 		}
 		done := math.Abs(next-wpl) < 1e-12
 		wpl = next
