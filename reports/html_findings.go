@@ -161,7 +161,7 @@ func (b *builder) doseFinding(s *plan.Sample, sw *sweepSet) []string {
 			out = append(out, fmt.Sprintf("To bring the water to %s takes %s mg/L of %s %% %s: pH %s → %s.",
 				targetLabel(d.Target), num(d.Dose, 1), num(d.Strength, 0), d.Reagent.Label,
 				num(d.Before.Result.PH, 2), num(d.After.Result.PH, 2)))
-		case d.Reached:
+		case d.Reached || d.Beyond:
 			out = append(out, noDoseSentence(d))
 		case len(d.Warnings) > 0:
 			out = append(out, "Dose to "+targetLabel(d.Target)+": "+sentence(clientText(d.Warnings[0])))
@@ -224,5 +224,9 @@ func (b *builder) qualityFinding(s *plan.Sample) []string {
 
 // noDoseSentence says that a water needs no dose to reach its target.
 func noDoseSentence(d *saturation.DoseResult) string {
-	return fmt.Sprintf("No %s is needed: the water is already at %s or better.", d.Reagent.Label, targetLabel(d.Target))
+	if d.Beyond {
+		return fmt.Sprintf("No %s is needed: the water is already at or beyond %s (%s would only move it further away).",
+			d.Reagent.Label, targetLabel(d.Target), d.Reagent.Label)
+	}
+	return fmt.Sprintf("No %s is needed: the water is already at %s.", d.Reagent.Label, targetLabel(d.Target))
 }

@@ -60,3 +60,22 @@ func TestHTMLManySamples(t *testing.T) {
 		t.Errorf("%d contents entries with a date, want 5", n)
 	}
 }
+
+// TestHTMLNoDose: a water already beyond its target in the direction the
+// reagent moves it (the demo tower water, LSI +1.4, against LSI +2 with
+// sulfuric acid) gets a sentence that no dose is needed, not a dose table
+// that says "not reached".
+func TestHTMLNoDose(t *testing.T) {
+	target, err := saturation.ParseTarget("lsi=2", nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	page := render(t, reports.Report{Samples: reports.ReportSamples(demoAssessments(t)),
+		Options: reports.HTMLOptions{Plan: plan.Settings{Target: &target}}})
+	if !strings.Contains(page, "No sulfuric acid is needed: the water is already at or beyond LSI &#43;2.00") {
+		t.Error("no sentence that no dose is needed")
+	}
+	if strings.Contains(page, "not reached") {
+		t.Error("the page says the dose was not reached")
+	}
+}

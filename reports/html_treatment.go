@@ -138,7 +138,7 @@ func (b *builder) doseView(tv *treatmentView, s *plan.Sample, d *saturation.Dose
 	switch {
 	case d.Reached && d.Dose > 0:
 		tv.Dose = append(tv.Dose, kv{"Dose", num(d.Dose, 1), "mg/L of product"})
-	case d.Reached:
+	case d.Reached || d.Beyond:
 		tv.NoDose = noDoseSentence(d)
 		tv.Dose = nil
 	default:
@@ -162,7 +162,8 @@ func (b *builder) doseView(tv *treatmentView, s *plan.Sample, d *saturation.Dose
 	// The reagent's caution is shown in its own box below.
 	for _, w := range d.Warnings {
 		// The side effects are in the table above, in the report's bands.
-		if c := strings.TrimSpace(d.Reagent.Caution); (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") {
+		c := strings.TrimSpace(d.Reagent.Caution)
+		if (c == "" || !strings.Contains(w, c)) && !strings.Contains(w, "the dose raises") && tv.NoDose == "" {
 			tv.DoseWarnings = append(tv.DoseWarnings, sentence(upperFirst(clientText(w))))
 		}
 	}
