@@ -1,6 +1,7 @@
 package water
 
 import (
+	"bufio"
 	"bytes"
 	"encoding/csv"
 	"errors"
@@ -139,7 +140,7 @@ func newRecordReader(file string, r io.Reader, opt ReadOptions) (*recordReader, 
 		table = Analytes()
 	}
 	opt.Detection.substitute(1) // an invalid policy is a programmer's mistake
-	limiter := &lineLimiter{r: r}
+	limiter := &lineLimiter{r: newCRReader(r)}
 	cr := csv.NewReader(limiter)
 	cr.FieldsPerRecord = -1
 	rd := &reader{file: file, cr: cr, table: table, policy: opt.Detection, units: map[[2]string]classified{}}
@@ -294,6 +295,38 @@ func rowName(line int) string { return "row " + strconv.Itoa(line) }
 type lineTooLongError struct{ line int }
 
 func (e *lineTooLongError) Error() string { return errLineTooLong.Error() }
+
+// crReader passes a reader through with each lone carriage return (the
+// line end of old Mac files and some instruments) turned into a line feed;
+// CR LF is kept, which encoding/csv reads as one line end. Without it a
+// CR-only file is one long line and reads as a header with no samples.
+type crReader struct {
+	br *bufio.Reader
+}
+
+func newCRReader(r io.Reader) *crReader { return &crReader{br: bufio.NewReader(r)} }
+
+func (c *crReader) Read(p []byte) (int, error) {
+	n, err := c.br.Read(p)
+	for i := 0; i < n; i++ {
+		j := bytes.IndexByte(p[i:n], '\r')
+		if j < 0 {
+			break
+		}
+		i += j
+		if i+1 < n {
+			if p[i+1] != '\n' {
+				p[i] = '\n'
+			}
+			continue
+		}
+		// The chunk ends in CR: the next byte decides.
+		if next, perr := c.br.Peek(1); perr != nil || next[0] != '\n' {
+			p[i] = '\n'
+		}
+	}
+	return n, err
+}
 
 // lineLimiter passes a reader through and fails at the first physical line
 // longer than MaxLineBytes, so that no reader downstream holds much more
