@@ -17,6 +17,9 @@ import (
 type ReadOptions struct {
 	Detection DetectionPolicy // one of the Detection constants (Read panics on any other)
 	Analytes  *AnalyteTable   // nil means Analytes()
+	// Dates is how the date cells are written; the zero value reads ISO
+	// 8601 only and refuses any other layout (NormalizeDate).
+	Dates DateFormat
 }
 
 // Record is one sample of a file: its analysis, or the error that stopped it.
@@ -143,7 +146,7 @@ func newRecordReader(file string, r io.Reader, opt ReadOptions) (*recordReader, 
 	limiter := &lineLimiter{r: newCRReader(r)}
 	cr := csv.NewReader(limiter)
 	cr.FieldsPerRecord = -1
-	rd := &reader{file: file, cr: cr, table: table, policy: opt.Detection, units: map[[2]string]classified{}}
+	rd := &reader{file: file, cr: cr, table: table, policy: opt.Detection, dates: opt.Dates, units: map[[2]string]classified{}}
 	header, line, err := rd.readHeader()
 	if err != nil {
 		return nil, err
@@ -185,6 +188,7 @@ type reader struct {
 	cr             *csv.Reader
 	table          *AnalyteTable
 	policy         DetectionPolicy
+	dates          DateFormat
 	units          map[[2]string]classified // long form: classified (analyte, unit) pairs
 }
 

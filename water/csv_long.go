@@ -287,7 +287,7 @@ func (lr *longReader) group(sample, date string, line int) *longSampleGroup {
 	if g, ok := lr.byKey[key]; ok {
 		return g
 	}
-	g := &longSampleGroup{line: line, b: sampleBuilder{s: NewSample(sample)},
+	g := &longSampleGroup{line: line, b: sampleBuilder{s: NewSample(sample), dates: lr.rd.dates},
 		seen: map[string]int{}, seenComp: map[string]int{}}
 	g.b.s.Date = date
 	lr.byKey[key] = g
@@ -305,7 +305,15 @@ func (lr *longReader) cellError(row longRow, k int, value string, err error) *In
 func (lr *longReader) add(row longRow) {
 	rd := lr.rd
 	sample, date := cleanText(row.Sample), cleanText(row.Date)
+	iso, dateErr := NormalizeDate(date, rd.dates)
+	if dateErr == nil {
+		date = iso
+	}
 	g := lr.group(sample, date, row.Line)
+	if dateErr != nil {
+		g.fail(lr.cellError(row, longDate, row.Date, dateErr))
+		return
+	}
 	if row.Bad != "" {
 		g.badLines = append(g.badLines, row.Line)
 		return

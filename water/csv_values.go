@@ -157,7 +157,8 @@ func (c cellValue) number() (float64, error) {
 // sampleBuilder collects the cells of one sample.
 type sampleBuilder struct {
 	s     Sample
-	notes []string // warnings on not-detected values
+	notes []string   // warnings on not-detected values
+	dates DateFormat // how date cells are written
 }
 
 // set stores cell v of column c in the sample, or says why it cannot.
@@ -171,7 +172,11 @@ func (b *sampleBuilder) set(c headerColumn, v cellValue, policy DetectionPolicy)
 		return nil
 	case fieldDate:
 		if b.s.Date == "" {
-			b.s.Date = cleanText(v.raw)
+			d, err := NormalizeDate(v.raw, b.dates)
+			if err != nil {
+				return err
+			}
+			b.s.Date = d
 		}
 		return nil
 	case fieldComment:

@@ -122,7 +122,7 @@ func (rd *reader) wideRecord(cols []headerColumn, fields []string, name func([]s
 		rec.Err = ie
 		return rec
 	}
-	b := sampleBuilder{s: NewSample(rec.Name)}
+	b := sampleBuilder{s: NewSample(rec.Name), dates: rd.dates}
 	b.s.Measurements = make([]Measurement, 0, rd.analyteColumns)
 	for i, c := range cols {
 		v := parseCell(fields[i])

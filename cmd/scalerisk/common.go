@@ -24,6 +24,7 @@ type commonFlags struct {
 	activity       string
 	thermo         string
 	belowDetection string
+	dateFormat     string
 	demo           bool
 	flow           float64
 	jobs           int
@@ -39,6 +40,7 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 	f.StringVar(&c.activity, "activity", "auto", "activity model: auto, davies, truesdell-jones, bdot or pitzer")
 	f.StringVar(&c.thermo, "thermo", "", "extra thermodynamic table (CSV) whose rows add to or replace the embedded ones")
 	f.StringVar(&c.belowDetection, "below-detection", "half", "value for \"<x\" results: half (x/2), zero or limit (x)")
+	f.StringVar(&c.dateFormat, "date-format", "", "how the files write dates when not YYYY-MM-DD: DD/MM/YYYY, MM/DD/YYYY, DD.MM.YYYY, DD-MM-YYYY, YYYY/MM/DD, DD/MM/YY or serial (spreadsheet day numbers); a time may follow")
 	f.BoolVar(&c.demo, "demo", false, "use the embedded demo waters of a fictional plant")
 	f.Float64Var(&c.flow, "flow", 0, "flow of the water, m³/h, to give scale and doses in kg/day")
 	f.BoolVar(&c.indent, "indent", false, "indent JSON, one key per line (the default when writing to a terminal; compact otherwise)")
@@ -66,6 +68,10 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 	policy, err := water.ParseDetectionPolicy(c.belowDetection)
 	if err != nil {
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(err)
+	}
+	dates, err := water.ParseDateFormat(c.dateFormat)
+	if err != nil {
+		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--date-format: %w", err))
 	}
 	if !(c.flow >= 0) || math.IsInf(c.flow, 0) {
 		return 0, saturation.Options{}, water.ReadOptions{}, badInput(fmt.Errorf("--flow %g: want a flow of 0 or more m³/h", c.flow))
@@ -95,7 +101,7 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 		}
 		opt.Model = model
 	}
-	return format, opt, water.ReadOptions{Detection: policy}, nil
+	return format, opt, water.ReadOptions{Detection: policy, Dates: dates}, nil
 }
 
 // writeOptions are the options of the sample writers: JSON indented with

@@ -44,3 +44,22 @@ func TestLabExport(t *testing.T) {
 		t.Errorf("CSV lacks the other analytes:\n%s", csvOut)
 	}
 }
+
+// TestDateFormat: day-first dates of an invented Kestrel Fen file are
+// refused without --date-format (file, line and column named; the ISO row
+// still computed; exit 2) and read with it (exit 0); an unknown format is
+// bad input.
+func TestDateFormat(t *testing.T) {
+	const file = "testdata/kestrel_fen_dates.csv"
+	r := mustRun(t, 2, "", "assess", file, "--format", "csv")
+	if !strings.Contains(r.stderr, file+":3:2: column \"Date\"") || !strings.Contains(r.stderr, "--date-format DD/MM/YYYY or MM/DD/YYYY") {
+		t.Errorf("stderr does not name the cell and the formats:\n%s", r.stderr)
+	}
+	if !strings.Contains(r.stdout, "Kestrel Fen makeup,"+file+",2,") {
+		t.Errorf("the ISO row was not computed:\n%s", r.stdout)
+	}
+	mustRun(t, 0, "", "assess", file, "--date-format", "DD/MM/YYYY")
+	if r := mustRun(t, 2, "", "assess", file, "--date-format", "DD/MM"); !strings.Contains(r.stderr, "--date-format") {
+		t.Errorf("unknown format: %q", r.stderr)
+	}
+}
