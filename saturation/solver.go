@@ -306,7 +306,6 @@ func (s *solver) solve(p problem, warm bool) error {
 func (s *solver) newton() error {
 	nb := len(s.vars) + 2 // unknowns of the speciation; then the amounts of eq
 	n := nb + len(s.eq)
-	cI, cW := nb-2, nb-1
 	s.iterations = 0
 	for q := range s.eq {
 		s.eqX[q] = 0
@@ -356,54 +355,67 @@ func (s *solver) newton() error {
 			}
 			factored = true
 		}
-		// Limit the step to a factor of 10 in any molality, in I or in a_w.
-		var big float64
-		for k := 0; k < nb; k++ {
-			big = math.Max(big, math.Abs(s.dx[k]))
-		}
-		if math.IsNaN(big) {
-			return fmt.Errorf("%w: Newton step became NaN", ErrNoConvergence)
-		}
-		lambda := 1.0
-		if big > math.Ln10 {
-			lambda = math.Ln10 / big
-		}
-		if len(s.eq) > 0 {
-			// The amounts' part of the step stops short of taking out
-			// what the water holds (the speciation's part is kept).
-			dxEq := s.dx[nb:n]
-			f := s.equilibriumStep(dxEq, lambda)
-			for q := range dxEq {
-				dxEq[q] *= f
-			}
-		}
-		for k, j := range s.vars {
-			s.save[k] = s.lnm[j]
-		}
-		s.save[cI], s.save[cW] = s.lnI, s.lnaw
-		copy(s.save[nb:n], s.eqX[:len(s.eq)])
-		for try := 0; try < 12; try++ {
-			for k, j := range s.vars {
-				s.lnm[j] = s.save[k] + lambda*s.dx[k]
-			}
-			s.lnI = s.save[cI] + lambda*s.dx[cI]
-			s.lnaw = math.Min(s.save[cW]+lambda*s.dx[cW], 0)
-			for q := range s.eq {
-				s.eqX[q] = s.save[nb+q] + lambda*s.dx[nb+q]
-			}
-			if try == 11 || maxAbs < 1e-6 || lambda*big < 0.5 {
-				break // a small step near the solution is taken as it is
-			}
-			// A non-monotone test: the residuals of a speciation may rise
-			// for a step or two on the way (a component's minor species
-			// swing), so only a step that makes them much worse is cut.
-			_, trial := s.evaluate(false)
-			if trial < 100*sumSq+1e-20 {
-				break
-			}
-			lambda /= 2
+		if err := s.step(nb, n, maxAbs, sumSq); err != nil {
+			return err
 		}
 	}
 	maxAbs, _ := s.evaluate(false)
 	return fmt.Errorf("%w after %d iterations (largest relative residual %.2g)", ErrNoConvergence, limit, maxAbs)
+}
+
+// step takes the Newton step s.dx from the current unknowns (nb of the
+// speciation, n in all), limited to a factor of 10 in any molality, in I or
+// in a_w (and short of taking out what the water holds, for the amounts of
+// an equilibrium solve), and halved while it makes the residuals (max
+// maxAbs, sum of squares sumSq now) much worse.
+func (s *solver) step(nb, n int, maxAbs, sumSq float64) error {
+	cI, cW := nb-2, nb-1
+	// Limit the step to a factor of 10 in any molality, in I or in a_w.
+	var big float64
+	for k := 0; k < nb; k++ {
+		big = math.Max(big, math.Abs(s.dx[k]))
+	}
+	if math.IsNaN(big) {
+		return fmt.Errorf("%w: Newton step became NaN", ErrNoConvergence)
+	}
+	lambda := 1.0
+	if big > math.Ln10 {
+		lambda = math.Ln10 / big
+	}
+	if len(s.eq) > 0 {
+		// The amounts' part of the step stops short of taking out
+		// what the water holds (the speciation's part is kept).
+		dxEq := s.dx[nb:n]
+		f := s.equilibriumStep(dxEq, lambda)
+		for q := range dxEq {
+			dxEq[q] *= f
+		}
+	}
+	for k, j := range s.vars {
+		s.save[k] = s.lnm[j]
+	}
+	s.save[cI], s.save[cW] = s.lnI, s.lnaw
+	copy(s.save[nb:n], s.eqX[:len(s.eq)])
+	for try := 0; try < 12; try++ {
+		for k, j := range s.vars {
+			s.lnm[j] = s.save[k] + lambda*s.dx[k]
+		}
+		s.lnI = s.save[cI] + lambda*s.dx[cI]
+		s.lnaw = math.Min(s.save[cW]+lambda*s.dx[cW], 0)
+		for q := range s.eq {
+			s.eqX[q] = s.save[nb+q] + lambda*s.dx[nb+q]
+		}
+		if try == 11 || maxAbs < 1e-6 || lambda*big < 0.5 {
+			break // a small step near the solution is taken as it is
+		}
+		// A non-monotone test: the residuals of a speciation may rise
+		// for a step or two on the way (a component's minor species
+		// swing), so only a step that makes them much worse is cut.
+		_, trial := s.evaluate(false)
+		if trial < 100*sumSq+1e-20 {
+			break
+		}
+		lambda /= 2
+	}
+	return nil
 }
