@@ -55,12 +55,20 @@ type pitzerParam struct {
 	tMax   float64
 	source string
 	line   int
+	// below, if set, is a second row of the same parameter whose function
+	// covers tMin..25 °C where this row's starts at 25 °C (a published
+	// function that does not reach below 25 °C, continued by another).
+	below *pitzerParam
 }
 
 // at returns the parameter at t °C: the 25 °C value plus the change of the
-// temperature function from 25 °C, P(T) − P(298.15 K). Outside tMin..tMax
-// the function is held at the nearer end of its range.
+// temperature function from 25 °C, P(T) − P(298.15 K). Below 25 °C a
+// parameter given in two rows uses its lower row. Outside tMin..tMax the
+// function is held at the nearer end of its range.
 func (p *pitzerParam) at(t float64) float64 {
+	if p.below != nil && t < 25 {
+		return p.below.at(t)
+	}
 	if !p.hasT {
 		return p.value
 	}
@@ -125,9 +133,12 @@ func readPitzerTable(file string, r io.Reader) (*pitzerTable, error) {
 		}
 		key := p.key()
 		if prev, dup := seen[key]; dup {
-			return nil, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%s given twice (first on line %d)", key, prev)}
+			if err := tab.params[prev].join(p); err != nil {
+				return nil, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%s given twice (first on line %d): %w", key, tab.params[prev].line, err)}
+			}
+			continue
 		}
-		seen[key] = line
+		seen[key] = len(tab.params)
 		if p.kind >= pzSpecies {
 			if k, ok := declared[p.names[0]]; ok {
 				return nil, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%s is both %s and %s", p.names[0], pitzerKindNames[k], pitzerKindNames[p.kind])}
@@ -147,6 +158,31 @@ func readPitzerTable(file string, r io.Reader) (*pitzerTable, error) {
 		}
 	}
 	return tab, nil
+}
+
+// join takes q, a second row of parameter p, as its continuation below
+// 25 °C. The two rows must have temperature functions that meet at 25 °C,
+// one on each side, with the same 25 °C value: so a published function that
+// starts at 25 °C (Møller 1988's CaCl2) is continued below by another source
+// without a step. p becomes the row at or above 25 °C.
+func (p *pitzerParam) join(q pitzerParam) error {
+	if p.kind >= pzLogK || p.below != nil || !p.hasT || !q.hasT {
+		return errors.New("a second row is allowed only as the part below 25 °C of a temperature function")
+	}
+	if p.value != q.value {
+		return fmt.Errorf("the two rows must have the same 25 °C value (%g and %g)", p.value, q.value)
+	}
+	switch {
+	case p.tMin == 25 && q.tMax == 25:
+	case q.tMin == 25 && p.tMax == 25:
+		*p, q = q, *p
+	default:
+		return errors.New("one row must end at 25 °C and the other start there")
+	}
+	low := q
+	p.below = &low
+	p.tMin = low.tMin
+	return nil
 }
 
 // key identifies a parameter for the duplicate check: θ and ψ do not depend

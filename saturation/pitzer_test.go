@@ -412,10 +412,28 @@ func TestPitzerTemperatureFunctions(t *testing.T) {
 			t.Errorf("%s at %g °C − at 25 °C = %.5f, want %.5f (%s)", p.label(), tc.tc, got, want, src)
 		}
 	}
-	// Outside its range a parameter is held at the range limit: CaCl2 (M88
-	// from 25 °C) at 10 °C keeps its 25 °C value.
-	if p := find(pzBeta0, "Ca[2+]", "Cl[-]"); p.at(10) != p.value {
-		t.Errorf("β0(Ca,Cl) at 10 °C = %g, want the 25 °C value %g (held below the fitted range)", p.at(10), p.value)
+	// CaCl2 below 25 °C, where M88's function does not reach: the second
+	// row's Silvester & Pitzer (1979) slopes (Pitzer 1991 Table 13 [READ],
+	// thermo.md §6.3), with no step at 25 °C.
+	for _, tc := range []struct {
+		kind  pitzerKind
+		slope float64
+	}{{pzBeta0, -0.561e-3}, {pzBeta1, 2.66e-3}, {pzCphi, -0.723e-4}} {
+		p := find(tc.kind, "Ca[2+]", "Cl[-]")
+		if p.below == nil || p.tMin != 0 {
+			t.Fatalf("%s: no row below 25 °C (range %g–%g °C)", p.label(), p.tMin, p.tMax)
+		}
+		if got, want := p.at(10)-p.value, tc.slope*(10-25); math.Abs(got-want) > 1e-12 {
+			t.Errorf("%s at 10 °C − at 25 °C = %.6f, want %.6f (Silvester & Pitzer 1979 slope)", p.label(), got, want)
+		}
+		if step := p.at(25) - p.at(25-1e-9); math.Abs(step) > 1e-9 {
+			t.Errorf("%s steps by %g at 25 °C", p.label(), step)
+		}
+	}
+	// Outside its range a parameter is held at the range limit: MgCl2
+	// (Silvester & Pitzer slopes, 0–50 °C) at 75 °C keeps its 50 °C value.
+	if p := find(pzBeta1, "Mg[2+]", "Cl[-]"); p.at(75) != p.at(50) || p.at(50) == p.value {
+		t.Errorf("β1(Mg,Cl) at 75 °C = %g, want the 50 °C value %g (held beyond the fitted range)", p.at(75), p.at(50))
 	}
 }
 
@@ -436,8 +454,10 @@ func TestPitzerTable(t *testing.T) {
 			declared[p.names[0]] = p.kind
 			continue
 		}
-		if !tag.MatchString(p.source) {
-			t.Errorf("data/pitzer.csv line %d (%s): source %q has no provenance tag", p.line, p.label(), p.source)
+		for q := &p; q != nil; q = q.below {
+			if !tag.MatchString(q.source) {
+				t.Errorf("data/pitzer.csv line %d (%s): source %q has no provenance tag", q.line, q.label(), q.source)
+			}
 		}
 	}
 	m := DefaultModel()
@@ -481,6 +501,9 @@ func TestPitzerTableErrors(t *testing.T) {
 		{"undeclared", "beta0,K[+],Cl[-],,0.1,,,,,,,,,25,25,x\n", "no species row"},
 		{"kind", "gamma,Na[+],Cl[-],,0.1,,,,,,,,,25,25,x\n", "unknown kind"},
 		{"NaN", "beta0,Na[+],Cl[-],,NaN,,,,,,,,,25,25,x\n", "value_25"},
+		{"two rows on one side", "beta0,Na[+],Cl[-],,0.1,,1e-3,,,,,,,0,50,x\nbeta0,Na[+],Cl[-],,0.1,,2e-3,,,,,,,0,25,x\n", "end at 25 °C"},
+		{"two rows, two values", "beta0,Na[+],Cl[-],,0.1,,1e-3,,,,,,,25,50,x\nbeta0,Na[+],Cl[-],,0.2,,2e-3,,,,,,,0,25,x\n", "same 25 °C value"},
+		{"two rows at 25 only", "beta0,Na[+],Cl[-],,0.1,,,,,,,,,25,25,x\nbeta0,Na[+],Cl[-],,0.1,,2e-3,,,,,,,0,25,x\n", "below 25 °C"},
 	} {
 		_, err := readPitzerTable("p.csv", strings.NewReader(head+species+tc.body))
 		var ie *water.InputError

@@ -2,6 +2,7 @@ package saturation
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"scalerisk/water"
@@ -152,5 +153,26 @@ func TestHeatedSeawaterCalcite(t *testing.T) {
 	if !(si[50] > si[10]) || !(si[70] > si[10]) {
 		t.Errorf("heating seawater at fixed carbon and alkalinity: calcite SI %.3f (10 °C), %.3f (50 °C), %.3f (70 °C); want a rise (Lueker et al. 2000, Mucci 1983)",
 			si[10], si[50], si[70])
+	}
+}
+
+// TestColdSeawaterInRange: cold seawater (0–25 °C) uses no Pitzer parameter
+// outside its fitted temperature range. Møller (1988)'s CaCl2 function starts
+// at 25 °C; below it the CaCl2 rows continue with the Silvester & Pitzer
+// (1979) slopes (Pitzer 1991 Table 13 [READ]), so no parameter is held at
+// its range limit and no such warning is given. Parameters known at 25 °C
+// only keep their own warning.
+func TestColdSeawaterInRange(t *testing.T) {
+	sp := NewSpeciator(nil)
+	for _, tc := range []float64{0, 2, 5, 10, 15, 20} {
+		r, err := sp.Speciate(seawaterForCarbonate(tc), Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, w := range r.Warnings {
+			if strings.Contains(w, "held at the range limit") {
+				t.Errorf("seawater at %g °C: %s", tc, w)
+			}
+		}
 	}
 }
