@@ -215,62 +215,8 @@ func (s *solver) solve(p problem, warm bool) error {
 	if s.pz != nil {
 		s.pz.setTemperature(p.t) // Pitzer model set
 	}
+	s.setUnknowns(p)
 	m := s.m
-	cj := m.compMaster[water.C]
-	present := func(j int) bool {
-		switch j {
-		case 0:
-			return true
-		case cj:
-			return p.cRow != rowAbsent
-		}
-		return p.totals[j] > 0
-	}
-	s.vars, s.rows = s.vars[:0], s.rows[:0]
-	s.alkRow, s.chgRow, s.gasRow = -1, -1, -1
-	for j := 0; j < s.nm; j++ {
-		s.rowOf[j] = -1
-		if !present(j) {
-			continue
-		}
-		kind := rowMass
-		switch j {
-		case 0:
-			if p.hRow == rowFixed {
-				continue
-			}
-			kind = p.hRow
-		case cj:
-			kind = p.cRow
-		}
-		k := len(s.vars)
-		s.vars = append(s.vars, j)
-		s.rows = append(s.rows, kind)
-		switch kind {
-		case rowMass:
-			s.rowOf[j] = k
-		case rowAlk:
-			s.alkRow = k
-		case rowCharge:
-			s.chgRow = k
-		case rowGas:
-			s.gasRow = k
-		}
-	}
-	s.rows = append(s.rows, rowIonic)
-	for i := range m.species {
-		ok := true
-		for _, nt := range m.species[i].nu {
-			if !present(nt.j) {
-				ok = false
-				break
-			}
-		}
-		s.live[i] = ok
-		if !ok {
-			s.ms[i], s.lng[i], s.dlng[i] = 0, 0, 0
-		}
-	}
 	s.fixedScale = math.Abs(p.alk) + 1e-7
 	for j := 1; j < s.nm; j++ {
 		if s.rowOf[j] >= 0 {
@@ -418,4 +364,66 @@ func (s *solver) step(nb, n int, maxAbs, sumSq float64) error {
 		lambda /= 2
 	}
 	return nil
+}
+
+// setUnknowns chooses the unknowns and equations of problem p: a row for
+// each master present (mass balance, or the H[+] and carbon rows p asks
+// for), the ionic-strength row, and which species are live.
+func (s *solver) setUnknowns(p problem) {
+	m := s.m
+	cj := m.compMaster[water.C]
+	present := func(j int) bool {
+		switch j {
+		case 0:
+			return true
+		case cj:
+			return p.cRow != rowAbsent
+		}
+		return p.totals[j] > 0
+	}
+	s.vars, s.rows = s.vars[:0], s.rows[:0]
+	s.alkRow, s.chgRow, s.gasRow = -1, -1, -1
+	for j := 0; j < s.nm; j++ {
+		s.rowOf[j] = -1
+		if !present(j) {
+			continue
+		}
+		kind := rowMass
+		switch j {
+		case 0:
+			if p.hRow == rowFixed {
+				continue
+			}
+			kind = p.hRow
+		case cj:
+			kind = p.cRow
+		}
+		k := len(s.vars)
+		s.vars = append(s.vars, j)
+		s.rows = append(s.rows, kind)
+		switch kind {
+		case rowMass:
+			s.rowOf[j] = k
+		case rowAlk:
+			s.alkRow = k
+		case rowCharge:
+			s.chgRow = k
+		case rowGas:
+			s.gasRow = k
+		}
+	}
+	s.rows = append(s.rows, rowIonic)
+	for i := range m.species {
+		ok := true
+		for _, nt := range m.species[i].nu {
+			if !present(nt.j) {
+				ok = false
+				break
+			}
+		}
+		s.live[i] = ok
+		if !ok {
+			s.ms[i], s.lng[i], s.dlng[i] = 0, 0, 0
+		}
+	}
 }
