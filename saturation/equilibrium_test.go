@@ -100,6 +100,21 @@ func TestJointActiveSet(t *testing.T) {
 			t.Errorf("water %d: %v", w, err)
 			continue
 		}
+		// The fallback, Newton with a finite-difference Jacobian, finds the
+		// same amounts (it stops at |SI| < 1e-8).
+		own := make([]int, len(cand)) // the minerals in the search's model
+		for k, i := range cand {
+			own[k], _ = sr.mineral(sp.model.minerals[i].name)
+		}
+		if y, err := sr.jointByDifferences(own); err != nil {
+			t.Errorf("water %d: fallback: %v", w, err)
+		} else {
+			for k := range x {
+				if math.Abs(y[k]-x[k]) > 1e-5*math.Abs(x[k])+1e-12 {
+					t.Errorf("water %d: %s: active set %.8g mol/kg, fallback %.8g", w, sp.model.minerals[cand[k]].name, x[k], y[k])
+				}
+			}
+		}
 		after := sp.model.removeMinerals(r.Analysis, cand, x)
 		r2, err := sp.Speciate(after, Options{AtTemperature: true, Temperature: r.Temperature, Activity: r.Activity})
 		if err != nil {

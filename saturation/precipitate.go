@@ -452,7 +452,7 @@ func (sr *search) jointByDifferences(idx []int) ([]float64, error) {
 		active[k] = true
 	}
 	sis := func(x []float64) ([]float64, error) {
-		out := make([]float64, n)
+		out := make([]float64, len(x))
 		if err := sr.siAfter(idx, x, out); err != nil {
 			return nil, err
 		}
@@ -485,59 +485,11 @@ func (sr *search) jointByDifferences(idx []int) ([]float64, error) {
 			}
 			continue
 		}
-		// Finite-difference Jacobian over the active amounts.
-		J := mat.NewDense(len(act), len(act), nil)
-		for c, k := range act {
-			h := math.Max(1e-7*x[k], 1e-10)
-			xh := slices.Clone(x)
-			xh[k] += h
-			fh, err := sis(xh)
-			if err != nil {
-				return nil, err
-			}
-			for rr, kk := range act {
-				J.Set(rr, c, (fh[kk]-f[kk])/h)
-			}
+		dx, err := differenceStep(sis, x, f, act)
+		if err != nil {
+			return nil, err
 		}
-		rhs := mat.NewVecDense(len(act), nil)
-		for rr, k := range act {
-			rhs.SetVec(rr, -f[k])
-		}
-		var dx mat.VecDense
-		if err := dx.SolveVec(J, rhs); err != nil {
-			return nil, fmt.Errorf("singular system: %w", err)
-		}
-		// A projected step: an amount the step would take below zero stops
-		// at zero (and leaves the active set below), without holding the
-		// others back. The step is halved while a total would turn negative
-		// or, a few times, while it does not bring the active SIs closer to
-		// zero.
-		lambda := 1.0
-		worstAt := func(fs []float64) float64 {
-			w := 0.0
-			for _, k := range act {
-				w = math.Max(w, math.Abs(fs[k]))
-			}
-			return w
-		}
-		for tries := 0; tries < 40; tries++ {
-			xn := slices.Clone(x)
-			for c, k := range act {
-				xn[k] = math.Max(x[k]+lambda*dx.AtVec(c), 0)
-			}
-			if !sr.feasible(idx, xn) {
-				lambda /= 2
-				continue
-			}
-			if tries < 6 {
-				if fn, err := sis(xn); err == nil && worstAt(fn) >= worst {
-					lambda /= 2
-					continue
-				}
-			}
-			copy(x, xn)
-			break
-		}
+		sr.projectedStep(sis, idx, x, dx, act, worst)
 		// An amount pinned at zero that still wants to go negative leaves.
 		for c, k := range act {
 			if x[k] == 0 && dx.AtVec(c) < 0 {
@@ -568,4 +520,69 @@ func (sr *search) feasible(idx []int, x []float64) bool {
 		}
 	}
 	return true
+}
+
+// differenceStep returns the Newton step of the active amounts act (index
+// into x) for the saturation indices f = sis(x), with the Jacobian by
+// forward differences.
+func differenceStep(sis func([]float64) ([]float64, error), x, f []float64, act []int) (*mat.VecDense, error) {
+	// Finite-difference Jacobian over the active amounts.
+	J := mat.NewDense(len(act), len(act), nil)
+	for c, k := range act {
+		h := math.Max(1e-7*x[k], 1e-10)
+		xh := slices.Clone(x)
+		xh[k] += h
+		fh, err := sis(xh)
+		if err != nil {
+			return nil, err
+		}
+		for rr, kk := range act {
+			J.Set(rr, c, (fh[kk]-f[kk])/h)
+		}
+	}
+	rhs := mat.NewVecDense(len(act), nil)
+	for rr, k := range act {
+		rhs.SetVec(rr, -f[k])
+	}
+	var dx mat.VecDense
+	if err := dx.SolveVec(J, rhs); err != nil {
+		return nil, fmt.Errorf("singular system: %w", err)
+	}
+	return &dx, nil
+}
+
+// projectedStep moves x (in place) along the step dx of the active amounts
+// act, from a state whose worst active |SI| is worst.
+func (sr *search) projectedStep(sis func([]float64) ([]float64, error), idx []int, x []float64, dx *mat.VecDense, act []int, worst float64) {
+	// A projected step: an amount the step would take below zero stops
+	// at zero (and leaves the active set below), without holding the
+	// others back. The step is halved while a total would turn negative
+	// or, a few times, while it does not bring the active SIs closer to
+	// zero.
+	lambda := 1.0
+	worstAt := func(fs []float64) float64 {
+		w := 0.0
+		for _, k := range act {
+			w = math.Max(w, math.Abs(fs[k]))
+		}
+		return w
+	}
+	for tries := 0; tries < 40; tries++ {
+		xn := slices.Clone(x)
+		for c, k := range act {
+			xn[k] = math.Max(x[k]+lambda*dx.AtVec(c), 0)
+		}
+		if !sr.feasible(idx, xn) {
+			lambda /= 2
+			continue
+		}
+		if tries < 6 {
+			if fn, err := sis(xn); err == nil && worstAt(fn) >= worst {
+				lambda /= 2
+				continue
+			}
+		}
+		copy(x, xn)
+		break
+	}
 }
