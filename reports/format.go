@@ -91,6 +91,9 @@ type WriteOptions struct {
 	// Indent writes JSON indented by two spaces, one key per line; the
 	// default is compact JSON.
 	Indent bool
+	// RawCSV writes CSV cells as they are; by default a cell a spreadsheet
+	// would run as a formula is neutralised (SafeCSVCell).
+	RawCSV bool
 }
 
 // SampleWriter writes the samples of one command one at a time, as each is
@@ -119,7 +122,11 @@ type SampleWriter[T any] struct {
 func NewSampleWriter[T any](w io.Writer, f Format, layout Layout[T], opt WriteOptions) *SampleWriter[T] {
 	sw := &SampleWriter[T]{w: w, f: f, layout: layout, opt: opt}
 	if f == CSV {
-		sw.header, sw.err = csvBytes([][]string{layout.Header})
+		header := [][]string{append([]string(nil), layout.Header...)}
+		if !opt.RawCSV {
+			header = safeCSVRows(header)
+		}
+		sw.header, sw.err = csvBytes(header)
 	}
 	return sw
 }
@@ -151,11 +158,15 @@ func (sw *SampleWriter[T]) Encode(v T) ([]byte, error) {
 		}
 		return bytes.TrimSuffix(b.Bytes(), []byte("\n")), nil
 	case CSV:
-		return csvBytes(sw.layout.CSV(v))
+		rows := sw.layout.CSV(v)
+		if !sw.opt.RawCSV {
+			rows = safeCSVRows(rows)
+		}
+		return csvBytes(rows)
 	}
 	var b strings.Builder
 	sw.layout.Text(&b, v)
-	return []byte(b.String()), nil
+	return []byte(SafeText(b.String())), nil
 }
 
 // Write writes one sample; after the first error every call returns it.

@@ -61,8 +61,10 @@ func WriteMinerals(w io.Writer, f Format, t *saturation.Table) error {
 		cw := csv.NewWriter(w)
 		cw.Write([]string{"name", "formula", "reaction", "log_k_25", "temperature_function", "t_min_c", "t_max_c", "source"})
 		for _, m := range ms {
-			cw.Write([]string{m.Name, m.Formula, m.Reaction, strconv.FormatFloat(m.LogK25, 'f', 3, 64),
-				m.TemperatureFunction, strconv.FormatFloat(m.TMinC, 'g', -1, 64), strconv.FormatFloat(m.TMaxC, 'g', -1, 64), m.Source})
+			// The rows of a --thermo file are the user's: no cell runs
+			// as a spreadsheet formula.
+			cw.Write(safeCSVRows([][]string{{m.Name, m.Formula, m.Reaction, strconv.FormatFloat(m.LogK25, 'f', 3, 64),
+				m.TemperatureFunction, strconv.FormatFloat(m.TMinC, 'g', -1, 64), strconv.FormatFloat(m.TMaxC, 'g', -1, 64), m.Source}})[0])
 		}
 		cw.Flush()
 		return cw.Error()
@@ -70,7 +72,7 @@ func WriteMinerals(w io.Writer, f Format, t *saturation.Table) error {
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "mineral\tformula\tlog K 25 °C\tT function\trange °C\tsource")
 	for _, m := range ms {
-		fmt.Fprintf(tw, "%s\t%s\t%.3f\t%s\t%g–%g\t%s\n", m.Name, m.Formula, m.LogK25, m.TemperatureFunction, m.TMinC, m.TMaxC, m.Source)
+		fmt.Fprintf(tw, "%s\t%s\t%.3f\t%s\t%g–%g\t%s\n", SafeText(m.Name), SafeText(m.Formula), m.LogK25, m.TemperatureFunction, m.TMinC, m.TMaxC, SafeText(m.Source))
 	}
 	return tw.Flush()
 }

@@ -29,6 +29,7 @@ type commonFlags struct {
 	flow           float64
 	jobs           int
 	indent         bool
+	rawCSV         bool
 	skin           float64 // --skin-temperature of the commands that decide
 }
 
@@ -43,6 +44,7 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 	f.StringVar(&c.dateFormat, "date-format", "", "how the files write dates when not YYYY-MM-DD: DD/MM/YYYY, MM/DD/YYYY, DD.MM.YYYY, DD-MM-YYYY, YYYY/MM/DD, DD/MM/YY or serial (spreadsheet day numbers); a time may follow")
 	f.BoolVar(&c.demo, "demo", false, "use the embedded demo waters of a fictional plant")
 	f.Float64Var(&c.flow, "flow", 0, "flow of the water, m³/h, to give scale and doses in kg/day")
+	f.BoolVar(&c.rawCSV, "raw-csv", false, "write CSV cells as they are, for pipelines (by default a cell beginning with =, +, -, @, tab or CR that is not a number gets a leading ' so that a spreadsheet does not run it as a formula)")
 	f.BoolVar(&c.indent, "indent", false, "indent JSON, one key per line (the default when writing to a terminal; compact otherwise)")
 	f.IntVar(&c.jobs, "jobs", runtime.NumCPU(), "samples computed at once (workers); the output is the same for any number")
 }
@@ -107,7 +109,7 @@ func (c *commonFlags) setup(cmd *cobra.Command) (reports.Format, saturation.Opti
 // writeOptions are the options of the sample writers: JSON indented with
 // --indent or when written to a terminal, compact otherwise.
 func (c *commonFlags) writeOptions(cmd *cobra.Command) reports.WriteOptions {
-	return reports.WriteOptions{Indent: c.indent || isTerminal(cmd.OutOrStdout())}
+	return reports.WriteOptions{Indent: c.indent || isTerminal(cmd.OutOrStdout()), RawCSV: c.rawCSV}
 }
 
 // mineralNames lists the minerals of model (nil: the default) in table

@@ -478,7 +478,7 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 			}
 			r := &runner{stderr: cmd.ErrOrStderr()}
 			if as.Err != nil {
-				fmt.Fprintln(r.stderr, as.Err)
+				fmt.Fprintln(r.stderr, reports.SafeText(as.Err.Error()))
 				r.failures++
 			}
 			return r.exit()

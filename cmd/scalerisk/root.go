@@ -82,11 +82,11 @@ func run(args []string, stdin io.Reader, stdout, stderr io.Writer) int {
 	var ee *exitError
 	if errors.As(err, &ee) {
 		if !ee.quiet {
-			fmt.Fprintln(stderr, "scalerisk:", ee.err)
+			fmt.Fprintln(stderr, "scalerisk:", reports.SafeText(ee.err.Error()))
 		}
 		return ee.code
 	}
-	fmt.Fprintln(stderr, "scalerisk:", err)
+	fmt.Fprintln(stderr, "scalerisk:", reports.SafeText(err.Error()))
 	// Cobra's own errors (unknown flag or command, bad flag value) are
 	// mistakes of the input.
 	return exitBadInput

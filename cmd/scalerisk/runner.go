@@ -35,7 +35,7 @@ type runner struct {
 func (r *runner) problem(err error) {
 	r.flush() // the output of the samples before it first; an error resurfaces at the next flush
 	r.progress.clear()
-	fmt.Fprintln(r.stderr, err)
+	fmt.Fprintln(r.stderr, reports.SafeText(err.Error()))
 	if !errors.Is(err, water.ErrNotUsed) {
 		r.problems++
 	}
@@ -47,7 +47,7 @@ func (r *runner) problem(err error) {
 func (r *runner) sampleError(file string, line int, err error) {
 	r.flush()
 	r.progress.clear()
-	fmt.Fprintf(r.stderr, "%s:%d: %v\n", file, line, err)
+	fmt.Fprintln(r.stderr, reports.SafeText(fmt.Sprintf("%s:%d: %v", file, line, err)))
 	if errors.Is(err, saturation.ErrInconsistent) {
 		r.problems++
 	} else {
