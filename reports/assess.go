@@ -149,7 +149,12 @@ type QualityJSON struct {
 	IonicStrength                 *float64 `json:"ionic_strength_composition,omitempty"`
 	IonicStrengthFromTDS          *float64 `json:"ionic_strength_from_tds,omitempty"`
 	IonicStrengthFromConductivity *float64 `json:"ionic_strength_from_conductivity,omitempty"`
-	Flags                         []string `json:"flags"`
+	// Seawater marks a seawater-like water, checked by its practical
+	// salinity (PSS-78) instead of the fresh-water conductivity criteria.
+	Seawater                *bool    `json:"seawater,omitempty"`
+	SalinityFromEC          *float64 `json:"practical_salinity_from_ec,omitempty"`
+	SalinityFromComposition *float64 `json:"practical_salinity_from_composition,omitempty"`
+	Flags                   []string `json:"flags"`
 }
 
 // AssessJSON is the whole JSON document of assess.
@@ -230,7 +235,15 @@ func addRisk(s *SampleJSON, r *saturation.Result) {
 
 func qualityJSON(q water.Quality) *QualityJSON {
 	mgl := func(x float64) float64 { return sig(x, 4) }
+	var seawater *bool
+	if q.Seawater {
+		seawater = &q.Seawater
+	}
+	d3 := func(x float64) float64 { return dec(x, 3) }
 	return &QualityJSON{
+		Seawater:                      seawater,
+		SalinityFromEC:                optional(q.SalinityFromEC, d3),
+		SalinityFromComposition:       optional(q.SalinityFromComposition, d3),
 		CationsMeqPerL:                optional(q.Cations, func(x float64) float64 { return sig(x, 4) }),
 		AnionsMeqPerL:                 optional(q.Anions, func(x float64) float64 { return sig(x, 4) }),
 		BalancePercent:                optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) }),
@@ -450,7 +463,19 @@ func writeQualityText(b *strings.Builder, q water.Quality) {
 		ec += fmt.Sprintf(", measured %.0f µS/cm (ratio %.2f)", q.ConductivityMeasured, q.ConductivityRatio)
 		ecVerdict = checkVerdict(q, "ec-ratio")
 	}
+	if q.Seawater {
+		ecVerdict = "seawater-like: see salinity"
+	}
 	fmt.Fprintf(tw, "    conductivity\t%s\t0.9–1.1\t%s\n", ec, ecVerdict)
+	if q.Seawater {
+		sal := fmt.Sprintf("from composition %.2f", q.SalinityFromComposition)
+		salVerdict := "EC not measured"
+		if !math.IsNaN(q.SalinityFromEC) {
+			sal += fmt.Sprintf(", from EC %.2f (PSS-78)", q.SalinityFromEC)
+			salVerdict = checkVerdict(q, "salinity-ec")
+		}
+		fmt.Fprintf(tw, "    practical salinity\t%s\t%s\t%s\n", sal, water.SalinityCriterion().Limit, salVerdict)
+	}
 	is := fmt.Sprintf("composition %.3g, from TDS %.3g", q.IonicStrength, q.IonicStrengthFromTDS)
 	if !math.IsNaN(q.IonicStrengthFromConductivity) {
 		is += fmt.Sprintf(", from EC %.3g", q.IonicStrengthFromConductivity)

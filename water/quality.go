@@ -144,6 +144,14 @@ type Quality struct {
 	// from the measured EC only; NaN when EC was not measured (the
 	// calculated EC would only restate IonicStrength).
 	IonicStrengthFromConductivity float64
+	// Seawater reports a seawater-like water (dissolved solids above
+	// 10 g/L, mostly Na and Cl): the fresh-water conductivity criteria do
+	// not apply to it, and SalinityCriterion does instead, comparing
+	// SalinityFromEC (PSS-78, from the measured EC; NaN when not measured)
+	// with SalinityFromComposition (from the calculated TDS). Both are NaN
+	// for other waters.
+	Seawater                                bool
+	SalinityFromEC, SalinityFromComposition float64
 	// Checks lists every criterion of QualityCriteria that applies, in that
 	// order, with its outcome; checks lacking data have Done false.
 	Checks []QualityCheck
@@ -199,8 +207,10 @@ const (
 func (a Analysis) Quality() Quality {
 	nan := math.NaN()
 	q := Quality{TDSMeasured: a.MeasuredTDS, ConductivityMeasured: a.MeasuredConductivity,
-		TDSRatio: nan, ConductivityRatio: nan, IonicStrengthFromConductivity: nan}
+		TDSRatio: nan, ConductivityRatio: nan, IonicStrengthFromConductivity: nan,
+		SalinityFromEC: nan, SalinityFromComposition: nan}
 	cationIons, anionIons := q.addComposition(a, conductivities())
+	q.Seawater = q.seawaterLike(a)
 	q.checkBalance()
 	q.ConductivityCalculated = onsagerConductivity(cationIons, anionIons)
 	if ionicMolar := q.IonicStrength * a.WaterPerLitre; ionicMolar > conductivityMaxIonicStrength {
@@ -210,6 +220,9 @@ func (a Analysis) Quality() Quality {
 	}
 	q.addEstimates()
 	q.checkRatios()
+	if q.Seawater {
+		q.checkSalinity(a)
+	}
 	q.checkIonicStrengthEstimates()
 	q.checkLab(a)
 	return q
@@ -335,6 +348,9 @@ func (q *Quality) checkRatios() {
 		return num / den, true
 	}
 	for _, c := range qualityCriteria[3:] {
+		if q.Seawater && c.Name != "tds-ratio" {
+			continue // the conductivity criteria suit fresh water only
+		}
 		var v float64
 		var done bool
 		switch c.Name {

@@ -63,3 +63,33 @@ func TestDateFormat(t *testing.T) {
 		t.Errorf("unknown format: %q", r.stderr)
 	}
 }
+
+// TestSeawaterSample: an invented Kestrel Fen sea intake of standard
+// seawater composition (Millero et al. 2008 reference composition scaled to
+// mg/L; from memory) with its conductivity, 53.1 mS/cm at 25 °C (PSS-78,
+// S = 35), passes: it is checked by practical salinity, not by the
+// fresh-water conductivity criteria, and carries no data-quality flag.
+func TestSeawaterSample(t *testing.T) {
+	r := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_seawater.csv", "--format", "json")
+	var doc struct {
+		Samples []struct {
+			Quality struct {
+				Seawater       bool     `json:"seawater"`
+				SalinityFromEC float64  `json:"practical_salinity_from_ec"`
+				Flags          []string `json:"flags"`
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(r.stdout), &doc); err != nil {
+		t.Fatal(err)
+	}
+	const tolS = 0.1 // practical salinity; 53.1 vs 53.065 mS/cm reads S = 35.03
+	q := doc.Samples[0].Quality
+	if !q.Seawater || len(q.Flags) != 0 || q.SalinityFromEC < 35-tolS || q.SalinityFromEC > 35+tolS {
+		t.Errorf("sea intake: seawater %v, S from EC %g (want 35 ± %g), flags %q", q.Seawater, q.SalinityFromEC, tolS, q.Flags)
+	}
+	text := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_seawater.csv").stdout
+	if !strings.Contains(oneLine(text), "practical salinity from composition 34.99, from EC 35.03 (PSS-78) 0.95–1.05 ok") {
+		t.Errorf("text lacks the salinity check:\n%s", text)
+	}
+}
