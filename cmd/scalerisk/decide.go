@@ -138,7 +138,7 @@ func reagentFlag(cmd *cobra.Command, name string, strength float64) (water.Reage
 func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
 	u := &uncertaintyFlags{}
-	var limits, carbonate, reagent string
+	var limits, limitsProfile, carbonate, reagent string
 	var maxN, step, evaporation float64
 	cmd := &cobra.Command{
 		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate closed|air|ph=V|natural|relation=A,B]",
@@ -162,7 +162,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			profile, err := loadProfile(limits, opt.Model)
+			profile, err := loadProfile(limits, limitsProfile, opt.Model)
 			if err != nil {
 				return err
 			}
@@ -212,6 +212,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	u.register(cmd)
 	f := cmd.Flags()
 	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
+	registerLimitsProfile(cmd, &limitsProfile)
 	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
 	f.StringVar(&reagent, "reagent", "h2so4", "acid that holds a ph= set point: h2so4 or hcl")
 	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
@@ -223,8 +224,11 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 
 // loadProfile returns an embedded profile by name or the first profile of
 // a CSV file.
-func loadProfile(name string, m *saturation.Model) (saturation.LimitProfile, error) {
+func loadProfile(name, profile string, m *saturation.Model) (saturation.LimitProfile, error) {
 	if p, err := saturation.LimitProfileNamed(name); err == nil {
+		if profile != "" {
+			return saturation.LimitProfile{}, badInput(fmt.Errorf("--limits-profile %q: --limits %s is a built-in profile, not a file", profile, name))
+		}
 		return p, nil
 	}
 	f, err := os.Open(name)
@@ -237,7 +241,31 @@ func loadProfile(name string, m *saturation.Model) (saturation.LimitProfile, err
 	if err != nil {
 		return saturation.LimitProfile{}, badInput(err)
 	}
-	return ps[0], nil
+	return chooseProfile(name, profile, ps)
+}
+
+// chooseProfile picks the profile of a limits file: the only one, or the
+// one --limits-profile names. A file of several profiles needs the flag
+// (it once took the first silently).
+func chooseProfile(file, profile string, ps []saturation.LimitProfile) (saturation.LimitProfile, error) {
+	var names []string
+	for _, p := range ps {
+		if p.Name == profile || profile == "" && len(ps) == 1 {
+			return p, nil
+		}
+		names = append(names, p.Name)
+	}
+	if profile == "" {
+		return saturation.LimitProfile{}, badInput(fmt.Errorf("%s holds %d profiles (%s): choose one with --limits-profile NAME",
+			file, len(ps), strings.Join(names, ", ")))
+	}
+	return saturation.LimitProfile{}, badInput(fmt.Errorf("%s: no profile %q (it holds %s)", file, profile, strings.Join(names, ", ")))
+}
+
+// registerLimitsProfile adds --limits-profile, the profile of a --limits
+// file that holds several.
+func registerLimitsProfile(cmd *cobra.Command, profile *string) {
+	cmd.Flags().StringVar(profile, "limits-profile", "", "the profile to use of a --limits file that holds several (required then)")
 }
 
 // sweepFlags are the flags of sweep beyond the shared ones.

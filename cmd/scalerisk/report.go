@@ -28,6 +28,7 @@ type reportOptions struct {
 	maxDose       float64
 	target        string
 	limits        string
+	limitsProfile string
 	carbonate     string
 	detail        int
 	blendWith     string
@@ -83,6 +84,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.Float64Var(&o.maxDose, "max-dose", 0, "end of the dose axis, mg/L of product (default: 80 % of the alkalinity neutralised)")
 	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
 	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
+	registerLimitsProfile(cmd, &o.limitsProfile)
 	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
 	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts, those of highest risk first (0: all); every sample is in the summary")
 	f.StringVar(&o.blendWith, "blend-with", "", "CSV file whose first sample is blended with each water (shown in the report)")
@@ -215,7 +217,7 @@ func (o *reportOptions) settings(cmd *cobra.Command, opt saturation.Options, rop
 	}
 	s.CyclesRule = &rule
 	if o.limits != "none" {
-		p, err := loadProfile(o.limits, opt.Model)
+		p, err := loadProfile(o.limits, o.limitsProfile, opt.Model)
 		if err != nil {
 			return s, err
 		}
