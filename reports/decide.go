@@ -206,6 +206,11 @@ type CyclesJSON struct {
 	Warnings        []string          `json:"warnings"`
 	Error           *string           `json:"error"`
 	LimitsAtMaximum map[string]string `json:"limits,omitempty"`
+	// Role is the sample's role when the file gives one; a recirculating
+	// or blowdown sample is asked its Margin, and its max_cycles is the
+	// factor it can still be concentrated by.
+	Role   string      `json:"role,omitempty"`
+	Margin *MarginJSON `json:"margin,omitempty"`
 }
 
 // CyclesPointJSON is the water at one number of cycles.
@@ -223,9 +228,13 @@ type CyclesPointJSON struct {
 
 // CyclesOutcome is the cycles answer for one sample.
 type CyclesOutcome struct {
-	Name        string
-	Carbonate   string
-	Result      *saturation.CyclesResult
+	Name      string
+	Carbonate string
+	Result    *saturation.CyclesResult
+	// Margin, for a recirculating or blowdown sample, is how far it is
+	// from its limits (Result is then its Further search).
+	Margin      *saturation.MarginResult
+	Role        string
 	Evaporation float64 // m³/h, 0 when not given
 	Err         error
 }
@@ -263,6 +272,7 @@ func cyclesJSON(c CyclesOutcome) CyclesJSON {
 	r := c.Result
 	j.Profile, j.MaxCycles, j.Limiting, j.Exceeded = r.Profile.Name, dec(r.MaxCycles, 2), r.Limiting, r.Exceeded
 	j.JudgementJSON = judgementJSON(r.Judged, "cycles")
+	j.Role, j.Margin = c.Role, MarginOf(c.Margin, nil)
 	if c.Evaporation > 0 && r.MaxCycles > 1 {
 		m, bd := water.MakeupAndBlowdown(c.Evaporation, r.MaxCycles)
 		j.MakeupM3PerH = optional(m, func(x float64) float64 { return sig(x, 4) })
@@ -333,6 +343,12 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 		return
 	}
 	r := c.Result
+	if c.Margin != nil {
+		fmt.Fprintf(b, "%s (%s): asked how far it is from its limits, not how many cycles it could run as a makeup.\n", c.Name, c.Role)
+		writeMarginText(b, c.Margin, nil)
+		writeCyclesTable(b, r)
+		return
+	}
 	switch {
 	case len(r.Exceeded) > 0:
 		fmt.Fprintf(b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",

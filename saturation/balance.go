@@ -31,7 +31,9 @@ type IonCycles struct {
 	// (as CaCO3 for alkalinity); NaN without a flow or for conductivity.
 	DeficitKgPerDay float64
 	// Missing and Gained mark an ion whose cycles fall below, or rise
-	// above, the reference cycles by more than BalanceTolerance.
+	// above, the reference cycles by more than BalanceTolerance; ions
+	// below 0.1 mg/L in the makeup (trace levels) are not judged, and ions
+	// reported below detection take no part.
 	Missing, Gained bool
 }
 
@@ -95,12 +97,29 @@ func ionValue(a water.Analysis, ion string) (float64, string, bool) {
 		return v, "mg/L as CaCO3", !math.IsNaN(v) && v > 0
 	}
 	f, err := parseForm(ion)
-	if err != nil || !a.Measured[f.comp] {
+	if err != nil || !a.Measured[f.comp] || belowDetection(a, f.comp) {
 		return 0, "", false
 	}
 	v, ok := f.mgPerL(a)
 	return v, "mg/L", ok
 }
+
+// belowDetection reports whether the laboratory gave component c of a as
+// "<x": a substitute value has no ratio to take.
+func belowDetection(a water.Analysis, c water.Component) bool {
+	for _, m := range a.Entered {
+		if m.BelowDetection && m.Analyte != nil && m.Analyte.Component == c.String() {
+			return true
+		}
+	}
+	return false
+}
+
+// traceLevel is the makeup concentration, mg/L, below which an ion's
+// cycles are shown but not judged: near the detection limit trace metals
+// are good to 10–30 % (practice-2.md, from memory), so their ratio says
+// little (this tool's choice).
+const traceLevel = 0.1
 
 // BalanceOf computes the mass balance of a tower (or blowdown) water
 // against its makeup: the cycles of each ion both report, the tower's
@@ -148,8 +167,12 @@ func BalanceOf(makeup, tower water.Analysis, blowdown float64) (*Balance, error)
 		if blowdown > 0 && ic.Ion != "conductivity" {
 			ic.DeficitKgPerDay = KgPerDay(ic.Deficit, blowdown)
 		}
-		ic.Missing = ic.Cycles < b.Cycles*(1-BalanceTolerance)
-		ic.Gained = ic.Cycles > b.Cycles*(1+BalanceTolerance)
+		if math.Abs(ic.Deficit) < 1e-9*ic.Expected {
+			ic.Deficit = 0 // the conservative ion that sets the median
+		}
+		judged := ic.Unit != "mg/L" || ic.Makeup >= traceLevel
+		ic.Missing = judged && ic.Cycles < b.Cycles*(1-BalanceTolerance)
+		ic.Gained = judged && ic.Cycles > b.Cycles*(1+BalanceTolerance)
 	}
 	b.Deposits, b.Notes = nameDeposits(b, b.Notes)
 	return b, nil
@@ -257,5 +280,9 @@ func caCO3Ratio(b *Balance) string {
 	ca, _ := b.ion("Ca")
 	alk, _ := b.ion("alkalinity")
 	caAs := water.AsCaCO3(2 * ca.Deficit / 40.078 / 1000) // mg/L Ca → eq/L → mg/L as CaCO3 (Standard Methods 2340)
-	return fmt.Sprintf("; the calcium deficit is %.3g and the alkalinity deficit %.3g mg/L as CaCO3 (a calcium carbonate deposit takes them 1:1)", caAs, alk.Deficit)
+	out := fmt.Sprintf("; the calcium deficit is %.3g and the alkalinity deficit %.3g mg/L as CaCO3 (a calcium carbonate deposit takes them 1:1)", caAs, alk.Deficit)
+	if alk.Deficit > 1.5*caAs {
+		out += "; the larger alkalinity deficit points to acid feed as well"
+	}
+	return out
 }

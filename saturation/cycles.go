@@ -27,8 +27,10 @@ type CarbonateRule struct {
 	Reagent  water.Reagent
 }
 
-// ParseCarbonateRule parses "closed", "air", "ph=7.8" (acid control with
-// reagent, sulfuric acid when zero), "natural" or "relation=A,B".
+// ParseCarbonateRule parses "closed", "air", "acid=7.8" (acid control:
+// the set point held with reagent, sulfuric acid when zero), "natural" or
+// "relation=A,B". The older "ph=7.8" still reads as acid control; see
+// CarbonateDeprecation.
 func ParseCarbonateRule(s string) (CarbonateRule, error) {
 	s = strings.ToLower(strings.TrimSpace(s))
 	r := CarbonateRule{Name: s}
@@ -36,14 +38,16 @@ func ParseCarbonateRule(s string) (CarbonateRule, error) {
 	case s == "" || s == "closed":
 		r.Name, r.Mode = "closed", Closed
 	case s == "air":
-		r.Mode = Air
+		r.Mode = FixedPCO2
 	case s == "natural":
 		r.Mode, r.A, r.B = FixedPHAlkalinity, naturalA, naturalB
-	case strings.HasPrefix(s, "ph="):
-		v, err := water.ParseNumber(strings.TrimPrefix(s, "ph="))
+	case strings.HasPrefix(s, "acid=") || strings.HasPrefix(s, "ph="):
+		_, num, _ := strings.Cut(s, "=")
+		v, err := water.ParseNumber(num)
 		if err != nil || v < 2 || v > 12 {
-			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want ph= a set point from 2 to 12", s)
+			return CarbonateRule{}, fmt.Errorf("carbonate rule %q: want acid= a set point from 2 to 12", s)
 		}
+		r.Name = "acid=" + num
 		r.Mode, r.SetPoint = FixedPHAlkalinity, v
 		acid, err := water.LookupReagent("h2so4")
 		if err != nil {
@@ -59,9 +63,25 @@ func ParseCarbonateRule(s string) (CarbonateRule, error) {
 		}
 		r.Mode, r.A, r.B = FixedPHAlkalinity, av, bv
 	default:
-		return CarbonateRule{}, fmt.Errorf("unknown carbonate rule %q (want closed, air, ph=VALUE, natural or relation=A,B)", s)
+		return CarbonateRule{}, fmt.Errorf("unknown carbonate rule %q (want natural, relation=A,B, air, acid=VALUE or closed)", s)
 	}
 	return r, nil
+}
+
+// CarbonateDeprecation returns the note an old spelling of a carbonate
+// rule or mode deserves, or "". One vocabulary serves every command:
+// acid=V is acid control (a dose of acid holds pH V, alkalinity falls),
+// fixed-ph=V a pH held with carbon conserved; the bare ph=V meant the one in
+// cycles and the other in assess, and still does, with this note.
+func CarbonateDeprecation(s string, rule bool) string {
+	s = strings.ToLower(strings.TrimSpace(s))
+	if !strings.HasPrefix(s, "ph=") {
+		return ""
+	}
+	if rule {
+		return fmt.Sprintf("--carbonate %s is read as acid control; write acid=%s (ph= is deprecated: it reads as a fixed pH elsewhere)", s, s[3:])
+	}
+	return fmt.Sprintf("--carbonate %s is read as a fixed pH; write fixed-ph=%s (ph= is deprecated: it reads as acid control in cycles)", s, s[3:])
 }
 
 // WithReagent returns the rule with the acid of its set point replaced.

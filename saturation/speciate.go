@@ -511,7 +511,7 @@ func (sp *Speciator) finish(r *Result, a water.Analysis, t float64) *Result {
 
 // ParseCarbonateMode parses how a water is evaluated: "closed" (carbon and
 // alkalinity conserved), "air" (equilibrium with air CO2), "pco2=LOG" (with
-// CO2 at 10^LOG atm), "charge" (pH from the charge balance) or "ph=VALUE"
+// CO2 at 10^LOG atm), "charge" (pH from the charge balance) or "fixed-ph=VALUE"
 // (pH held, carbon conserved). It returns the options' carbonate fields:
 // the mode, the pH of FixedPH and the log pCO2 of FixedPCO2 (LogPCO2Air for
 // Air, for the record).
@@ -530,12 +530,13 @@ func ParseCarbonateMode(s string) (mode CarbonateMode, pH, logPCO2 float64, err 
 			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want pco2=LOG10(atm), e.g. pco2=-3.4, from −8 to 2", s)
 		}
 		return FixedPCO2, 0, v, nil
-	case strings.HasPrefix(s, "ph="):
-		v, err := water.ParseNumber(strings.TrimPrefix(s, "ph="))
+	case strings.HasPrefix(s, "fixed-ph=") || strings.HasPrefix(s, "ph="):
+		_, num, _ := strings.Cut(s, "=")
+		v, err := water.ParseNumber(num)
 		if err != nil || v < 0 || v > 14 {
-			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want ph= a pH from 0 to 14", s)
+			return 0, 0, 0, fmt.Errorf("carbonate mode %q: want fixed-ph= a pH from 0 to 14", s)
 		}
 		return FixedPH, v, 0, nil
 	}
-	return 0, 0, 0, fmt.Errorf("unknown carbonate mode %q (want closed, air, pco2=LOG, charge or ph=VALUE)", s)
+	return 0, 0, 0, fmt.Errorf("unknown carbonate mode %q (want closed, air, pco2=LOG, charge or fixed-ph=VALUE)", s)
 }

@@ -27,7 +27,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			"Puckorius, Stiff–Davis, Larson–Skold, CCPP) and how much scale could form.\n\n" +
 			"pH and alkalinity at the pH measurement temperature fix inorganic carbon; at any other\n" +
 			"temperature carbon and alkalinity are conserved and pH is recomputed (closed system),\n" +
-			"unless --carbonate says air, pco2=LOG, charge or ph=VALUE.\n\n" +
+			"unless --carbonate says air, pco2=LOG, charge or fixed-ph=VALUE.\n\n" +
 			"Values below the detection limit (\"<0.1\") are taken as half the limit unless\n" +
 			"--below-detection says zero or limit.\n\n" +
 			"Exit status: 0 all samples computed; 2 bad input (the good samples are still\n" +
@@ -37,8 +37,8 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			if opt.Carbonate, opt.PH, opt.LogPCO2, err = saturation.ParseCarbonateMode(carbonate); err != nil {
-				return badInput(err)
+			if err := parseMode(cmd, carbonate, &opt); err != nil {
+				return err
 			}
 			mc, withDraws, err := u.settings()
 			if err != nil {
@@ -70,6 +70,6 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 	c.register(cmd)
 	u.register(cmd)
 	cmd.Flags().StringVar(&carbonate, "carbonate", "closed",
-		"carbonate system at the evaluation temperature: closed, air, pco2=LOG10(atm), charge (pH from charge balance) or ph=VALUE")
+		"carbonate system at the evaluation temperature: closed, air, pco2=LOG10(atm), charge (pH from charge balance) or fixed-ph=VALUE (ph=VALUE is the old spelling)")
 	return cmd
 }

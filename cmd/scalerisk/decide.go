@@ -141,7 +141,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	var limits, limitsProfile, carbonate, reagent string
 	var maxN, step, evaporation float64
 	cmd := &cobra.Command{
-		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate closed|air|ph=V|natural|relation=A,B]",
+		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate natural|relation=A,B|air|acid=V|closed]",
 		Short: "Highest cycles of concentration of a makeup water under a limit profile, and the limiting mineral",
 		Example: `  scalerisk cycles --demo
   scalerisk cycles makeup.csv --limits inhibitor --skin-temperature 65
@@ -149,7 +149,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 		Long: "cycles concentrates each makeup water by 1 to --max cycles (conservative ions times N),\n" +
 			"finds its carbonate state by --carbonate — natural (the default: pH = 1.465·log10(TA) + 4.54,\n" +
 			"the relation of untreated towers, alkalinity conserved; common practice), relation=A,B (your\n" +
-			"tower's own pH = A·log10(TA) + B), air (equilibrium with air CO2), ph=VALUE (acid control:\n" +
+			"tower's own pH = A·log10(TA) + B), air (equilibrium with air CO2), acid=VALUE (acid control:\n" +
 			"the dose of --reagent that holds the set point, open to air, with its sulfate or chloride)\n" +
 			"or closed (CO2 stays: a sealed system) — and returns the highest cycles at which every limit of the profile\n" +
 			"holds, naming the limiting mineral. Profiles: no-inhibitor and inhibitor (data/limits.csv,\n" +
@@ -166,9 +166,9 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			if err != nil {
 				return err
 			}
-			rule, err := saturation.ParseCarbonateRule(carbonate)
+			rule, err := parseRule(cmd, carbonate)
 			if err != nil {
-				return badInput(err)
+				return err
 			}
 			if rule.SetPoint != 0 {
 				r, err := water.LookupReagent(reagent)
@@ -201,8 +201,18 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			return stream(run, src, w, batch[reports.CyclesOutcome]{
 				newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
 					return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
-						r, err := saturation.MaxCycles(rec.Analysis, profile, rule, maxN, step, opt)
-						return reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Result: r, Evaporation: evaporation, Err: err}, err
+						a := rec.Analysis
+						if a.Role.Circulating() {
+							// A tower water is asked its margin to the limits.
+							m, err := saturation.Margin(a, profile, rule, maxN, math.NaN(), opt)
+							out := reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Margin: m, Err: err}
+							if m != nil {
+								out.Result = m.Further
+							}
+							return out, err
+						}
+						r, err := saturation.MaxCycles(a, profile, rule, maxN, step, opt)
+						return reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Result: r, Evaporation: evaporation, Err: err}, err
 					}
 				},
 			})
@@ -213,7 +223,7 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 	f := cmd.Flags()
 	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
 	registerLimitsProfile(cmd, &limitsProfile)
-	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
+	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, acid=VALUE (acid control; ph=VALUE is the old spelling) or closed")
 	f.StringVar(&reagent, "reagent", "h2so4", "acid that holds a ph= set point: h2so4 or hcl")
 	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
 	f.Float64Var(&step, "step", 0.5, "step of the cycles table")
@@ -319,7 +329,7 @@ func newSweepCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&sf.reagent, "reagent", "", "reagent for --vary dose, by formula or name: "+reagentNames())
 	f.Float64Var(&sf.strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
 	f.StringVar(&sf.partner, "partner", "", "CSV file whose first sample is blended with each water for --vary fraction")
-	f.StringVar(&sf.carbonate, "carbonate", "closed", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or ph=VALUE (acid control), as in cycles")
+	f.StringVar(&sf.carbonate, "carbonate", "", "carbonate system: closed or air; for --vary cycles also natural, relation=A,B or acid=VALUE (acid control), as in cycles (default: natural with --vary cycles, as cycles does; closed otherwise)")
 	return cmd
 }
 
@@ -329,9 +339,20 @@ func (sf *sweepFlags) axes(cmd *cobra.Command, stdin io.Reader, ropt water.ReadO
 	if len(sf.vary) == 0 || len(sf.vary) > 2 {
 		return saturation.Axis{}, nil, badInput(errors.New("give one or two --vary NAME=FROM:TO:N"))
 	}
-	rule, err := saturation.ParseCarbonateRule(sf.carbonate)
+	carbonate := sf.carbonate
+	if carbonate == "" {
+		// One default for one question: cycles of an open tower follow the
+		// tower rule, as in cycles; anything else is closed.
+		carbonate = "closed"
+		for _, v := range sf.vary {
+			if name, _, _ := strings.Cut(v, "="); strings.TrimSpace(name) == "cycles" {
+				carbonate = "natural"
+			}
+		}
+	}
+	rule, err := parseRule(cmd, carbonate)
 	if err != nil {
-		return saturation.Axis{}, nil, badInput(err)
+		return saturation.Axis{}, nil, err
 	}
 	towerRule := rule.A != 0 || rule.SetPoint != 0
 	if !towerRule {

@@ -85,7 +85,7 @@ func newReportCmd(stdin io.Reader) *cobra.Command {
 	f.StringVar(&o.target, "target", "lsi=0.5", "target of the dose: ph=VALUE, lsi=VALUE, rsi=VALUE, psi=VALUE, si:MINERAL=VALUE, or none")
 	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile of the highest-cycles search: no-inhibitor, inhibitor, a CSV file, or none")
 	registerLimitsProfile(cmd, &o.limitsProfile)
-	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, ph=VALUE (acid control) or closed")
+	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule of the highest-cycles search: natural, relation=A,B, air, acid=VALUE (acid control) or closed")
 	f.IntVar(&o.detail, "detail", 20, "how many samples get a full section with charts, those of highest risk first (0: all); every sample is in the summary")
 	f.StringVar(&o.blendWith, "blend-with", "", "CSV file whose first sample is blended with each water (shown in the report)")
 	f.Float64Var(&o.blendFraction, "blend-fraction", 0.5, "share of each sample in the blend with --blend-with, 0–1 by volume")
@@ -211,9 +211,9 @@ func (o *reportOptions) settings(cmd *cobra.Command, opt saturation.Options, rop
 		}
 		s.Target = &t
 	}
-	rule, err := saturation.ParseCarbonateRule(o.carbonate)
+	rule, err := parseRule(cmd, o.carbonate)
 	if err != nil {
-		return s, badInput(err)
+		return s, err
 	}
 	s.CyclesRule = &rule
 	if o.limits != "none" {

@@ -64,7 +64,8 @@ func newRootCmd(stdin io.Reader) *cobra.Command {
 	root.SuggestionsMinimumDistance = 2
 	root.SetFlagErrorFunc(suggestFlag)
 	root.AddCommand(newAssessCmd(stdin), newMineralsCmd(), newReportCmd(stdin), newTemplateCmd())
-	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin))
+	root.AddCommand(newSweepCmd(stdin), newDoseCmd(stdin), newCyclesCmd(stdin), newBlendCmd(stdin),
+		newBalanceCmd(stdin), newMembraneCmd(stdin))
 	return root
 }
 
