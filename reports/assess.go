@@ -18,6 +18,8 @@ import (
 // a contract that other programs parse: extend, never rename.
 type SampleJSON struct {
 	Name                 string             `json:"name"`
+	Date                 string             `json:"date,omitempty"` // ISO 8601 (see --date-format)
+	Role                 string             `json:"role,omitempty"`
 	File                 string             `json:"file,omitempty"`
 	Line                 int                `json:"line,omitempty"`
 	TemperatureC         *float64           `json:"temperature_c"`
@@ -178,6 +180,10 @@ func sample(as saturation.Assessment, full bool) SampleJSON {
 	if as.BadInput {
 		return s
 	}
+	s.Date = as.Input.Date
+	if as.Input.Role != water.RoleUnset {
+		s.Role = as.Input.Role.String()
+	}
 	q := as.Quality
 	s.ChargeBalancePercent = optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) })
 	s.Quality = qualityJSON(q)
@@ -291,10 +297,15 @@ func WriteAssessments(w io.Writer, f Format, as []saturation.Assessment) error {
 // computed).
 func NewAssessWriter(w io.Writer, f Format, minerals []string, opt WriteOptions) *SampleWriter[saturation.Assessment] {
 	return NewSampleWriter(w, f, Layout[saturation.Assessment]{
-		JSON:    func(a saturation.Assessment) any { return Sample(a) },
-		Header:  assessHeader(minerals),
-		CSV:     func(a saturation.Assessment) [][]string { return [][]string{assessRow(a, minerals)} },
-		Text:    writeAssessText,
+		JSON:   func(a saturation.Assessment) any { return Sample(a) },
+		Header: assessHeader(minerals),
+		CSV:    func(a saturation.Assessment) [][]string { return [][]string{assessRow(a, minerals)} },
+		Text: func(b *strings.Builder, a saturation.Assessment) {
+			writeAssessText(b, a)
+			if opt.Species {
+				writeSpeciesText(b, a)
+			}
+		},
 		Caution: Caution,
 	}, opt)
 }
@@ -336,7 +347,8 @@ func assessHeader(minerals []string) []string {
 	for _, m := range minerals {
 		header = append(header, "si_"+m)
 	}
-	return append(header, "error", "warnings", "other_analytes")
+	header = append(header, "error", "warnings", "other_analytes")
+	return append(header, assessExtraHeader(minerals)...)
 }
 
 // notDefined is what the text and CSV writers say for an index that is not
@@ -376,8 +388,9 @@ func assessRow(a saturation.Assessment, minerals []string) []string {
 	if s.Error != nil {
 		errText = *s.Error
 	}
-	return append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "),
+	row = append(row, errText, strings.Join(append(slices.Clone(s.BelowDetection), s.Warnings...), "; "),
 		otherAnalytesCell(s.OtherAnalytes))
+	return append(row, assessExtraRow(a, s, minerals)...)
 }
 
 func strOrBlank(p *string) string {

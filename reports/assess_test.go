@@ -162,7 +162,7 @@ func TestCSVColumns(t *testing.T) {
 		t.Fatalf("%d CSV rows, want a header and 3 samples", len(rows))
 	}
 	header := rows[0]
-	want := 9 + 7 + len(water.Components()) + 4 + 3 // fixed, 7 indices, totals, 4 minerals, error, warnings and other analytes
+	want := 9 + 7 + len(water.Components()) + 4 + 3 + 3 + 4 // fixed, 7 indices, totals, 4 minerals, error, warnings, other analytes, date, role, quality flags, 4 bands
 	if len(header) != want {
 		t.Errorf("header has %d columns, want %d: %v", len(header), want, header)
 	}
@@ -172,8 +172,9 @@ func TestCSVColumns(t *testing.T) {
 			t.Errorf("header lacks %q", col)
 		}
 	}
-	if header[0] != "name" || !slices.Equal(header[len(header)-3:], []string{"error", "warnings", "other_analytes"}) {
-		t.Errorf("header = %v, want name first and error, warnings, other_analytes last", header)
+	if header[0] != "name" || !slices.Equal(header[len(header)-10:], []string{"error", "warnings", "other_analytes", "date", "role", "quality_flags",
+		"band_calcite", "band_gypsum", "band_barite", "band_celestite"}) {
+		t.Errorf("header = %v, want name first and error, warnings, other_analytes, date, role, quality_flags, bands last", header)
 	}
 	for i, row := range rows[1:] {
 		if len(row) != len(header) {

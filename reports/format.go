@@ -94,6 +94,9 @@ type WriteOptions struct {
 	// RawCSV writes CSV cells as they are; by default a cell a spreadsheet
 	// would run as a formula is neutralised (SafeCSVCell).
 	RawCSV bool
+	// Species adds the speciation table to assess's text (it is always in
+	// the JSON).
+	Species bool
 }
 
 // SampleWriter writes the samples of one command one at a time, as each is

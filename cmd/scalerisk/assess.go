@@ -14,12 +14,14 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 	c := &commonFlags{}
 	u := &uncertaintyFlags{}
 	var carbonate string
+	var species bool
 	cmd := &cobra.Command{
 		Use:   "assess [FILE...|-]",
 		Short: "Data quality, speciation, saturation indices, classic indices and scale that could form",
 		Example: `  scalerisk assess --demo
   scalerisk assess lab-2026-03.csv --format json > assessed.json
-  scalerisk assess lab-2026-03.csv --temperature 60 --activity pitzer`,
+  scalerisk assess lab-2026-03.csv --temperature 60 --activity pitzer
+  scalerisk assess lab-export.csv --date-format DD/MM/YYYY --species`,
 		Long: "assess reads laboratory analyses (wide or long CSV; - for standard input; --demo for the\n" +
 			"embedded demo waters) and prints, for each sample, the data-quality checks (ion balance,\n" +
 			"TDS, conductivity, ionic strength), the equilibrium pH and ionic strength, the saturation\n" +
@@ -51,7 +53,9 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 			if withDraws {
 				return assessUncertain(cmd, c, r, src, format, opt, mc)
 			}
-			w := reports.NewAssessWriter(r.out, format, mineralNames(opt.Model), c.writeOptions(cmd))
+			wopt := c.writeOptions(cmd)
+			wopt.Species = species
+			w := reports.NewAssessWriter(r.out, format, mineralNames(opt.Model), wopt)
 			return stream(r, src, w, batch[saturation.Assessment]{
 				newWorker: func() func(string, water.Record) (saturation.Assessment, error) {
 					sp := saturation.NewSpeciator(opt.Model)
@@ -69,6 +73,7 @@ func newAssessCmd(stdin io.Reader) *cobra.Command {
 	}
 	c.register(cmd)
 	u.register(cmd)
+	cmd.Flags().BoolVar(&species, "species", false, "print the speciation table (molality, activity coefficient, activity of each species) in the text output")
 	cmd.Flags().StringVar(&carbonate, "carbonate", "closed",
 		"carbonate system at the evaluation temperature: closed, air, pco2=LOG10(atm), charge (pH from charge balance) or fixed-ph=VALUE (ph=VALUE is the old spelling)")
 	return cmd

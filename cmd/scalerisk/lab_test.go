@@ -1,7 +1,9 @@
 package main
 
 import (
+	"encoding/csv"
 	"encoding/json"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -91,5 +93,36 @@ func TestSeawaterSample(t *testing.T) {
 	text := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_seawater.csv").stdout
 	if !strings.Contains(oneLine(text), "practical salinity from composition 34.99, from EC 35.03 (PSS-78) 0.95–1.05 ok") {
 		t.Errorf("text lacks the salinity check:\n%s", text)
+	}
+}
+
+// TestAssessPeopleOutputs: --species prints the speciation table in the
+// text; the CSV carries the date (as ISO, from a day-first file read with
+// --date-format), the data-quality flags and each mineral's risk band.
+func TestAssessPeopleOutputs(t *testing.T) {
+	text := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_seawater.csv", "--species").stdout
+	if !strings.Contains(text, "  Species\n") || !strings.Contains(oneLine(text), "species molality (mol/kg) activity coefficient activity") ||
+		!strings.Contains(text, "Na[+]") {
+		t.Errorf("--species: no speciation table in\n%s", text)
+	}
+	if plain := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_seawater.csv").stdout; strings.Contains(plain, "  Species\n") {
+		t.Errorf("species table printed without --species")
+	}
+	out := mustRun(t, 0, "", "assess", "testdata/kestrel_fen_dates.csv", "--date-format", "DD/MM/YYYY", "--format", "csv").stdout
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	col := func(name string) int { return slices.Index(rows[0], name) }
+	for _, c := range []string{"date", "role", "quality_flags", "band_calcite"} {
+		if col(c) < 0 {
+			t.Fatalf("CSV lacks column %q: %v", c, rows[0])
+		}
+	}
+	if got := rows[3][col("date")]; got != "2026-02-14 08:30" {
+		t.Errorf("date of row 3 %q, want 2026-02-14 08:30", got)
+	}
+	if got := rows[3][col("band_calcite")]; got == "" || rows[1][col("quality_flags")] == "" {
+		t.Errorf("calcite band %q, first quality flags %q: want both written", got, rows[1][col("quality_flags")])
 	}
 }
