@@ -175,10 +175,15 @@ func nextRecord(cr *csv.Reader, file string, ncol int, strict bool) (rec []strin
 	if errors.Is(err, io.EOF) {
 		return nil, 0, false, nil
 	}
-	line, _ = cr.FieldPos(0)
 	if err != nil {
+		// FieldPos panics after a failed Read: the line is the error's.
+		var pe *csv.ParseError
+		if errors.As(err, &pe) {
+			line = pe.StartLine
+		}
 		return nil, line, false, &water.InputError{File: file, Line: line, Err: err}
 	}
+	line, _ = cr.FieldPos(0)
 	if strict && len(rec) != ncol {
 		return nil, line, false, &water.InputError{File: file, Line: line, Err: fmt.Errorf("%d fields, want %d", len(rec), ncol)}
 	}
