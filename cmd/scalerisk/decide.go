@@ -374,7 +374,7 @@ func (sf *sweepFlags) axes(cmd *cobra.Command, stdin io.Reader, ropt water.ReadO
 			}
 			axes[i].Reagent, axes[i].Strength = r, sf.strength
 		case saturation.VaryFraction:
-			pw, err := firstSample(sf.partner, stdin, ropt)
+			pw, err := firstSample(sf.partner, stdin, ropt, *opt)
 			if err != nil {
 				return saturation.Axis{}, nil, err
 			}
@@ -425,11 +425,26 @@ func parseAxis(s string) (saturation.Axis, error) {
 }
 
 // firstSample returns the first good sample of a file, for --partner.
-func firstSample(file string, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+func firstSample(file string, stdin io.Reader, ropt water.ReadOptions, opt saturation.Options) (water.Analysis, error) {
 	if file == "" {
 		return water.Analysis{}, badInput(errors.New("a blend needs a second water (--partner FILE)"))
 	}
-	return pickSample(input{name: file}, sampleChoice{nth: 1}, stdin, ropt)
+	return pickSample(input{name: file}, sampleChoice{nth: 1}, stdin, ropt, opt)
+}
+
+// checkComputable speciates the picked water alone, so that a water a
+// blend cannot use is named with its file and line before any work (it
+// once gave an empty blend table with exit 0, or exit 1 naming neither):
+// an inconsistent analysis is bad input, exit 2; any other failure exit 1.
+func checkComputable(file string, r water.Record, opt saturation.Options) error {
+	_, err := saturation.NewSpeciator(opt.Model).Speciate(r.Analysis, opt)
+	switch {
+	case err == nil:
+		return nil
+	case errors.Is(err, saturation.ErrInconsistent):
+		return badInput(fmt.Errorf("%s:%d: %w", file, r.Line, err))
+	}
+	return &exitError{code: exitInternal, err: fmt.Errorf("%s:%d: %w", file, r.Line, err)}
 }
 
 // sampleChoice picks a good sample of an input: by name, or else the nth
@@ -440,7 +455,7 @@ type sampleChoice struct {
 }
 
 // pickSample returns the good sample of an input that choice picks.
-func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadOptions) (water.Analysis, error) {
+func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadOptions, opt saturation.Options) (water.Analysis, error) {
 	records, probs, err := readInput(in, stdin, ropt)
 	if err != nil {
 		return water.Analysis{}, badInput(err)
@@ -460,7 +475,7 @@ func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadO
 			if r.Err != nil {
 				return water.Analysis{}, badInput(r.Err)
 			}
-			return r.Analysis, nil
+			return r.Analysis, checkComputable(in.name, r, opt)
 		}
 	}
 	if choice.name == "" {
@@ -509,7 +524,7 @@ func newBlendCmd(stdin io.Reader) *cobra.Command {
 			}
 			var ws []water.Analysis
 			for i, in := range inputs {
-				w, err := pickSample(in, choices[i], stdin, ropt)
+				w, err := pickSample(in, choices[i], stdin, ropt, opt)
 				if err != nil {
 					return err
 				}

@@ -120,3 +120,31 @@ func TestPartnerBadFirstRow(t *testing.T) {
 		}
 	}
 }
+
+// TestPartnerNotComputable: a partner water that cannot be computed (pH 12
+// with alkalinity 0: inconsistent) is bad input at its file and line for
+// blend, report --blend-with and sweep --partner (before: blend exit 1
+// naming no file or line; report exit 0 with the blend failed in every
+// section).
+func TestPartnerNotComputable(t *testing.T) {
+	dir := t.TempDir()
+	partner := filepath.Join(dir, "caustic.csv")
+	lab := "name,temperature [C],pH,Na [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3]\ncaustic,25,12,100,100,0\n"
+	if err := os.WriteFile(partner, []byte(lab), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	want := "scalerisk: " + partner + ":2: caustic: inconsistent analysis: pH 12 and alkalinity 0 meq/kg do not fit: the non-carbonate species alone give 11.09 meq/kg\n"
+	for _, args := range [][]string{
+		{"blend", "--demo", partner, "--fraction", "0.5"},
+		{"report", "--demo", "--blend-with", partner, "-o", filepath.Join(dir, "r.html")},
+		{"sweep", "--demo", "--vary", "fraction=0:1:3", "--partner", partner},
+	} {
+		r := mustRun(t, exitBadInput, "", args...)
+		if r.stderr != want {
+			t.Errorf("%v: stderr %q, want %q", args[0], r.stderr, want)
+		}
+	}
+	if _, err := os.Stat(filepath.Join(dir, "r.html")); err == nil {
+		t.Error("a report was written")
+	}
+}

@@ -227,7 +227,7 @@ func (o *reportOptions) settings(cmd *cobra.Command, opt saturation.Options, rop
 		if !(o.blendFraction >= 0 && o.blendFraction <= 1) {
 			return s, badInput(fmt.Errorf("--blend-fraction %g: want a share from 0 to 1", o.blendFraction))
 		}
-		p, err := firstSample(o.blendWith, stdin, ropt)
+		p, err := firstSample(o.blendWith, stdin, ropt, opt)
 		if err != nil {
 			return s, err
 		}
