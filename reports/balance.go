@@ -243,6 +243,11 @@ func writeMarginText(b *strings.Builder, m *saturation.MarginResult, err error) 
 	}
 	switch {
 	case len(f.Exceeded) > 0:
+		for _, q := range f.Exceeded {
+			if note := saturation.FitNote(nil, q, f.Judged.Governing); note != "" {
+				where += "; " + strings.TrimPrefix(q, "si:") + ": " + note
+			}
+		}
 		fmt.Fprintf(b, "  Margin under the %s profile: none — already past the limit for %s (at %s).\n", m.Profile.Name, strings.Join(f.Exceeded, ", "), where)
 	case f.Limiting == "":
 		fmt.Fprintf(b, "  Margin under the %s profile: no limit is reached even at %.3g times the present concentration.\n", m.Profile.Name, f.MaxCycles)

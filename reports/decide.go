@@ -351,14 +351,28 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 	}
 	switch {
 	case len(r.Exceeded) > 0:
-		fmt.Fprintf(b, "%s: the makeup itself is past the %s limits for %s (%s carbonate): treat it before cycling.\n",
-			c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), c.Carbonate)
+		var fits []string
+		for _, q := range r.Exceeded {
+			if note := saturation.FitNote(nil, q, r.Judged.Governing); note != "" {
+				fits = append(fits, strings.TrimPrefix(q, "si:")+": "+note)
+			}
+		}
+		fit := ""
+		if len(fits) > 0 {
+			fit = " (" + strings.Join(fits, "; ") + ")"
+		}
+		fmt.Fprintf(b, "%s: the makeup itself is past the %s limits for %s%s (%s carbonate): treat it before cycling.\n",
+			c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), fit, c.Carbonate)
 	case r.Limiting == "":
 		fmt.Fprintf(b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
 	default:
 		l, _ := r.Profile.Lookup(r.Limiting)
-		fmt.Fprintf(b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there.\n",
-			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Judged.Governing, r.Limiting, l.Max)
+		fit := ""
+		if note := saturation.FitNote(nil, r.Limiting, r.Judged.Governing); note != "" {
+			fit = " (" + note + ")"
+		}
+		fmt.Fprintf(b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there%s.\n",
+			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Judged.Governing, r.Limiting, l.Max, fit)
 	}
 	writeJudgement(b, r.Judged, func(v float64) string { return fmt.Sprintf("%.2f cycles", v) })
 	if c.Evaporation > 0 && r.MaxCycles > 1 {

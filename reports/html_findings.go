@@ -55,8 +55,12 @@ func (b *builder) findings(s *plan.Sample, sw *sweepSet) []string {
 	var out []string
 	if m, ok := b.limiting(r); ok {
 		band := b.bandText(m.Band)
-		out = append(out, fmt.Sprintf("At %s °C the limiting mineral is %s (%s), SI %s: %s.",
-			num(r.Temperature, 1), mineralLabel(m.Name), m.Formula, signed(m.SI, 2), band))
+		fit := ""
+		if note := saturation.FitNote(nil, m.Name, r.Temperature); note != "" {
+			fit = " — " + note // never a headline without its caveat
+		}
+		out = append(out, fmt.Sprintf("At %s °C the limiting mineral is %s (%s), SI %s: %s%s.",
+			num(r.Temperature, 1), mineralLabel(m.Name), m.Formula, signed(m.SI, 2), band, fit))
 	} else {
 		out = append(out, fmt.Sprintf("At %s °C no scale-forming mineral is supersaturated.", num(r.Temperature, 1)))
 	}
@@ -131,8 +135,15 @@ func cyclesFinding(c *saturation.CyclesResult, rule saturation.CarbonateRule) st
 		return fmt.Sprintf("Used as a cooling-tower makeup: no limit is reached up to %s cycles of concentration. "+
 			"(Judged under %s.)", num(c.MaxCycles, 1), where)
 	}
-	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s. (Judged under %s.)",
-		num(c.MaxCycles, 2), quantityLabel(c.Limiting), where)
+	at := ""
+	if c.Judged.SkinGoverns() {
+		at = fmt.Sprintf(" at the %s °C tube wall (the water alone would allow %s)", num(c.Judged.Skin, 0), num(c.Judged.AtBulk, 2))
+	}
+	if note := saturation.FitNote(nil, c.Limiting, c.Judged.Governing); note != "" {
+		at += " — " + note
+	}
+	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s%s. (Judged under %s.)",
+		num(c.MaxCycles, 2), quantityLabel(c.Limiting), at, where)
 }
 
 // cyclesCaption describes the cycles chart.

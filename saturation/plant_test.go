@@ -187,3 +187,19 @@ func TestDoseSkinGoverns(t *testing.T) {
 		t.Errorf("a pH target judged %+v: want the bulk only", p.Judged)
 	}
 }
+
+// TestFitNote: the calcium phosphates are fitted to 5–37 °C (Gregory et al.
+// 1974; McDowell et al. 1977, data/thermo.csv), so a 60 °C finding headed
+// by tricalcium phosphate says so; calcite (Plummer & Busenberg 1982,
+// 0–90 °C) needs no note at 60 °C.
+func TestFitNote(t *testing.T) {
+	if n := FitNote(nil, "si:tricalcium_phosphate", 60); !strings.Contains(n, "fitted to 5–37 °C") {
+		t.Errorf("tricalcium phosphate at 60 °C: %q, want the fitted range", n)
+	}
+	if n := FitNote(nil, "calcite", 60); n != "" {
+		t.Errorf("calcite at 60 °C: %q, want none", n)
+	}
+	if n := FitNote(nil, "product:Mg_as_CaCO3*SiO2", 60); n != "" {
+		t.Errorf("a product rule: %q, want none", n)
+	}
+}
