@@ -5,6 +5,7 @@ import (
 	"io"
 	"io/fs"
 	"os"
+	"os/exec"
 	"path/filepath"
 	"strings"
 	"syscall"
@@ -222,5 +223,56 @@ func TestWriteSignalRemovesTemp(t *testing.T) {
 		if _, err := os.Stat(path); !errors.Is(err, fs.ErrNotExist) {
 			t.Errorf("%v: %s exists after the signal", sig, path)
 		}
+	}
+}
+
+// TestWriteKilledProcess: a real process writing a file gets SIGTERM
+// while the temporary file exists: it ends by the signal (the default
+// action, raised again after the clean-up) and leaves no temporary file
+// and no target. The child is this test binary run with OUTFILE_CHILD.
+func TestWriteKilledProcess(t *testing.T) {
+	if dir := os.Getenv("OUTFILE_CHILD"); dir != "" {
+		Write(filepath.Join(dir, "r.html"), nil, func(w io.Writer) error {
+			io.WriteString(w, "half")
+			os.WriteFile(filepath.Join(dir, "ready"), nil, 0o644)
+			time.Sleep(time.Minute) // killed here
+			return nil
+		})
+		os.Exit(0)
+	}
+	dir := t.TempDir()
+	cmd := exec.Command(os.Args[0], "-test.run=^TestWriteKilledProcess$")
+	cmd.Env = append(os.Environ(), "OUTFILE_CHILD="+dir)
+	if err := cmd.Start(); err != nil {
+		t.Fatal(err)
+	}
+	deadline := time.Now().Add(30 * time.Second)
+	for {
+		if _, err := os.Stat(filepath.Join(dir, "ready")); err == nil {
+			break
+		}
+		if time.Now().After(deadline) {
+			cmd.Process.Kill()
+			t.Fatal("the child did not start writing")
+		}
+		time.Sleep(10 * time.Millisecond)
+	}
+	if len(leftovers(t, dir)) != 1 {
+		t.Error("no temporary file while the child writes")
+	}
+	cmd.Process.Signal(syscall.SIGTERM)
+	err := cmd.Wait()
+	var ee *exec.ExitError
+	if !errors.As(err, &ee) {
+		t.Fatalf("child: %v, want death by SIGTERM", err)
+	}
+	if ws, ok := ee.Sys().(syscall.WaitStatus); !ok || !ws.Signaled() || ws.Signal() != syscall.SIGTERM {
+		t.Errorf("child ended with %v, want SIGTERM", err)
+	}
+	if l := leftovers(t, dir); len(l) > 0 {
+		t.Errorf("temporary files left: %v", l)
+	}
+	if _, err := os.Stat(filepath.Join(dir, "r.html")); !errors.Is(err, fs.ErrNotExist) {
+		t.Error("a target was written")
 	}
 }
