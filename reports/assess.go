@@ -524,12 +524,12 @@ func writeResultText(b *strings.Builder, r *saturation.Result) {
 	slices.SortStableFunc(ms, func(x, y saturation.MineralResult) int { return cmp.Compare(y.SI, x.SI) })
 	nameW, formW := len("mineral"), len("formula")
 	for _, m := range ms {
-		nameW = max(nameW, len([]rune(m.Name)))
+		nameW = max(nameW, len([]rune(mineralTitle(m.Name))))
 		formW = max(formW, len([]rune(m.Formula)))
 	}
-	fmt.Fprintf(b, "    %-*s  %-*s  %7s  %s\n", nameW, "mineral", formW, "formula", "SI", "band")
+	fmt.Fprintf(b, "    %-*s  %-*s  %7s  %s\n", nameW, "Mineral", formW, "Formula", "SI", "Band")
 	for _, m := range ms {
-		fmt.Fprintf(b, "    %-*s  %-*s  %+7.2f  %s\n", nameW, m.Name, formW, m.Formula, m.SI, saturation.RiskBand(m.Name, m.SI))
+		fmt.Fprintf(b, "    %-*s  %-*s  %7s  %s\n", nameW, mineralTitle(m.Name), formW, m.Formula, siText(m.SI), saturation.RiskBand(m.Name, m.SI))
 	}
 }
 

@@ -205,11 +205,12 @@ func TestTextSortsBySI(t *testing.T) {
 	var order []string
 	for _, line := range strings.Split(out, "\n") {
 		f := strings.Fields(line)
-		if len(f) > 0 && slices.Contains([]string{"calcite", "gypsum", "barite", "celestite"}, f[0]) {
+		if len(f) > 0 && slices.Contains([]string{"Calcite", "Gypsum", "Barite", "Celestite"}, f[0]) {
 			order = append(order, f[0])
 		}
 	}
-	if want := []string{"barite", "calcite", "celestite", "gypsum"}; !slices.Equal(order, want) {
+	// Mineral names in words, capitalised (mineralTitle).
+	if want := []string{"Barite", "Calcite", "Celestite", "Gypsum"}; !slices.Equal(order, want) {
 		t.Errorf("minerals listed as %v, want by SI descending %v\n%s", order, want, out)
 	}
 	for _, want := range []string{"Tower 1  (lab.csv, line 2)", "  Data quality", "+0.81", "-1.90", "Results are advisory."} {

@@ -419,7 +419,7 @@ func writeCyclesTable(b *strings.Builder, r *saturation.CyclesResult) {
 			fmt.Fprintf(b, "  %7.2f  %v\n", p.Cycles, p.Err)
 			continue
 		}
-		fmt.Fprintf(b, "  %7.2f  %6.2f  %6s", p.Cycles, p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+		fmt.Fprintf(b, "  %7.2f  %6.2f  %6s", p.Cycles, p.Result.PH, siText(p.Indices.LSI))
 		if acid {
 			fmt.Fprintf(b, "  %9.4g", p.Dose)
 		}

@@ -144,35 +144,38 @@ func writeSweepText(b *strings.Builder, s SweepOutcome) {
 	}
 	b.WriteString("\n")
 	shown := shownMinerals(s.Points)
-	fmt.Fprintf(b, "  %13s", variableKey(s.X.Var))
+	xw := titleWidth(variableTitle(s.X.Var), 8)
+	b.WriteString("  " + padLeft(variableTitle(s.X.Var), xw))
+	yw := 0
 	if s.Y != nil {
-		fmt.Fprintf(b, "  %13s", variableKey(s.Y.Var))
+		yw = titleWidth(variableTitle(s.Y.Var), 8)
+		b.WriteString("  " + padLeft(variableTitle(s.Y.Var), yw))
 	}
 	fmt.Fprintf(b, "  %6s  %6s", "pH", "LSI")
 	for _, m := range shown {
-		fmt.Fprintf(b, "  %*s", max(8, len(m)), m)
+		b.WriteString("  " + padLeft(mineralTitle(m), titleWidth(mineralTitle(m), 8)))
 	}
 	b.WriteString("\n")
 	notes := map[string]bool{}
 	for _, p := range s.Points {
-		fmt.Fprintf(b, "  %13.4g", p.X)
+		b.WriteString("  " + padLeft(variableText(s.X.Var, p.X), xw))
 		if s.Y != nil {
-			fmt.Fprintf(b, "  %13.4g", p.Y)
+			b.WriteString("  " + padLeft(variableText(s.Y.Var, p.Y), yw))
 		}
 		if p.Err != nil {
 			fmt.Fprintf(b, "  %v\n", p.Err)
 			continue
 		}
-		fmt.Fprintf(b, "  %6.2f  %6s", p.Result.PH, numOrBlank(p.Indices.LSI, 2))
+		fmt.Fprintf(b, "  %6.2f  %6s", p.Result.PH, siText(p.Indices.LSI))
 		for _, wn := range p.Result.Warnings {
 			notes[wn] = true
 		}
 		for _, m := range shown {
+			cell := "–"
 			if v, ok := p.Result.SI(m); ok {
-				fmt.Fprintf(b, "  %+*.2f", max(8, len(m)), v)
-			} else {
-				fmt.Fprintf(b, "  %*s", max(8, len(m)), "–")
+				cell = siText(v)
 			}
+			b.WriteString("  " + padLeft(cell, titleWidth(mineralTitle(m), 8)))
 		}
 		b.WriteString("\n")
 	}
