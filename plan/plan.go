@@ -168,6 +168,10 @@ type Sample struct {
 	// highest cycles under the profile; Blends the blends with the partner.
 	DoseAnswer   *saturation.DoseResult
 	CyclesAnswer *saturation.CyclesResult
+	// MarginAnswer replaces CyclesAnswer for a recirculating or blowdown
+	// sample: how far it is from its limits (its role changes the
+	// question, not the chemistry).
+	MarginAnswer *saturation.MarginResult
 	Blends       []Blend
 	// Passes are the minerals that go past their limit along the
 	// temperature, cycles and dose sweeps, and where.
@@ -265,6 +269,11 @@ func doseStep(p *Sample, s Settings) error {
 func cyclesStep(p *Sample, s Settings) error {
 	if s.Profile == nil {
 		return nil
+	}
+	if p.Input.Role.Circulating() {
+		m, err := saturation.Margin(p.Input, *s.Profile, s.Rule(), s.Cycles(), math.NaN(), s.Speciation)
+		p.MarginAnswer = m
+		return err
 	}
 	c, err := saturation.MaxCycles(p.Input, *s.Profile, s.Rule(), s.Cycles(), 0, s.Speciation)
 	p.CyclesAnswer = c

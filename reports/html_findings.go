@@ -73,6 +73,8 @@ func (b *builder) findings(s *plan.Sample, sw *sweepSet) []string {
 		fmt.Sprintf("between %s and %s °C", num(sw.bulk, 0), num(sw.hot, 0)))...)
 	if c := s.CyclesAnswer; c != nil {
 		out = append(out, cyclesFinding(c, b.o.Plan.Rule()))
+	} else if m := s.MarginAnswer; m != nil {
+		out = append(out, marginFinding(m, b.o.Plan.Rule()))
 	} else {
 		out = append(out, b.passFindings(s, "cycles", s.Cycles, func(x float64) string { return num(x, 1) + " cycles" },
 			fmt.Sprintf("when concentrated up to %s cycles", num(sw.maxCycles, 0)))...)
@@ -137,13 +139,45 @@ func cyclesFinding(c *saturation.CyclesResult, rule saturation.CarbonateRule) st
 	}
 	at := ""
 	if c.Judged.SkinGoverns() {
-		at = fmt.Sprintf(" at the %s °C tube wall (the water alone would allow %s)", num(c.Judged.Skin, 0), num(c.Judged.AtBulk, 2))
+		at = fmt.Sprintf(" at the %s °C tube wall (at the water's own temperature it would be %s)", num(c.Judged.Skin, 0), num(c.Judged.AtBulk, 2))
 	}
 	if note := saturation.FitNote(nil, c.Limiting, c.Judged.Governing); note != "" {
 		at += " — " + note
 	}
 	return fmt.Sprintf("Used as a cooling-tower makeup: at most %s cycles of concentration, set by %s%s. (Judged under %s.)",
 		num(c.MaxCycles, 2), quantityLabel(c.Limiting), at, where)
+}
+
+// marginFinding says how far a recirculating water is from its limits,
+// the question its role asks (not how many cycles it could run as a
+// makeup).
+func marginFinding(m *saturation.MarginResult, rule saturation.CarbonateRule) string {
+	f := m.Further
+	where := profileWords(m.Profile.Name) + ", at " + ruleWords(rule)
+	at := ""
+	if f.Judged.SkinGoverns() {
+		at = fmt.Sprintf(" at the %s °C tube wall", num(f.Judged.Skin, 0))
+	}
+	switch {
+	case len(f.Exceeded) > 0:
+		fit := ""
+		for _, q := range f.Exceeded {
+			if note := saturation.FitNote(nil, q, f.Judged.Governing); note != "" {
+				fit += " — " + note
+			}
+		}
+		return fmt.Sprintf("As a recirculating water it is already past the limit for %s%s%s: there is no margin. (Judged under %s.)",
+			joinWords(exceededWords(f)), at, fit, where)
+	case f.Limiting == "":
+		return fmt.Sprintf("As a recirculating water it is within every limit, even concentrated %s times further. (Judged under %s.)",
+			num(f.MaxCycles, 1), where)
+	}
+	fit := ""
+	if note := saturation.FitNote(nil, f.Limiting, f.Judged.Governing); note != "" {
+		fit = " — " + note
+	}
+	return fmt.Sprintf("As a recirculating water it can be concentrated %s times further before %s reaches its limit%s%s. (Judged under %s.)",
+		num(f.MaxCycles, 2), quantityLabel(f.Limiting), at, fit, where)
 }
 
 // cyclesCaption describes the cycles chart.
