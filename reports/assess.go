@@ -576,10 +576,10 @@ func writeIndicesText(b *strings.Builder, a saturation.Assessment) {
 	b.WriteString("  Scale that could form to reach equilibrium (closed system, mg of mineral per litre):\n")
 	w := len("mineral")
 	for _, p := range ps {
-		w = max(w, len(p.Mineral))
+		w = max(w, len(mineralTitle(p.Mineral)))
 	}
 	for _, p := range ps {
-		line := fmt.Sprintf("    %-*s  %9s alone  %9s with the others", w, p.Mineral, mgText(p.Alone), mgText(p.Together))
+		line := fmt.Sprintf("    %-*s  %9s alone  %9s with the others", w, mineralTitle(p.Mineral), mgText(p.Alone), mgText(p.Together))
 		if a.Flow > 0 && !math.IsNaN(p.Together) {
 			line += fmt.Sprintf("  (%.3g kg/day at %g m³/h)", saturation.KgPerDay(p.Together, a.Flow), a.Flow)
 		}

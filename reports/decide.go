@@ -400,7 +400,7 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 // limits, at every point.
 func writeCyclesTable(b *strings.Builder, r *saturation.CyclesResult) {
 	acid := r.Rule.SetPoint > 0
-	fmt.Fprintf(b, "  %7s  %6s  %6s", "cycles", "pH", "LSI")
+	fmt.Fprintf(b, "  %7s  %6s  %6s", "Cycles", "pH", "LSI")
 	if acid {
 		fmt.Fprintf(b, "  %9s", "acid mg/L")
 	}
@@ -411,7 +411,7 @@ func writeCyclesTable(b *strings.Builder, r *saturation.CyclesResult) {
 		}
 	}
 	for _, n := range names {
-		fmt.Fprintf(b, "  %*s", max(8, len(n)), n)
+		b.WriteString("  " + padLeft(mineralTitle(n), titleWidth(mineralTitle(n), 8)))
 	}
 	b.WriteString("\n")
 	for _, p := range r.Points {
@@ -424,11 +424,11 @@ func writeCyclesTable(b *strings.Builder, r *saturation.CyclesResult) {
 			fmt.Fprintf(b, "  %9.4g", p.Dose)
 		}
 		for _, n := range names {
+			cell := "–"
 			if v, ok := p.Result.SI(n); ok {
-				fmt.Fprintf(b, "  %+*.2f", max(8, len(n)), v)
-			} else {
-				fmt.Fprintf(b, "  %*s", max(8, len(n)), "–")
+				cell = siText(v)
 			}
+			b.WriteString("  " + padLeft(cell, titleWidth(mineralTitle(n), 8)))
 		}
 		b.WriteString("\n")
 	}
