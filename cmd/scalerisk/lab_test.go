@@ -126,3 +126,45 @@ func TestAssessPeopleOutputs(t *testing.T) {
 		t.Errorf("calcite band %q, first quality flags %q: want both written", got, rows[1][col("quality_flags")])
 	}
 }
+
+// TestLabExportWhole is the issue's "done when": one invented Kestrel Fen
+// export with the extra columns, day-first dates (one with a time) and a
+// seawater sample is read without editing: exit 0 with --date-format, the
+// dates as ISO, the extra columns passed through, and the seawater held to
+// PSS-78 (no flag; its total hardness, 6400 mg/L as CaCO3 against Ca + Mg
+// 6463 by Standard Methods 2340 B, within 10 %).
+func TestLabExportWhole(t *testing.T) {
+	const file = "testdata/kestrel_fen_export.csv"
+	mustRun(t, 2, "", "assess", file) // the dates need --date-format
+	r := mustRun(t, 0, "", "assess", file, "--date-format", "DD/MM/YYYY", "--format", "json")
+	var doc struct {
+		Samples []struct {
+			Name          string
+			Date          string
+			OtherAnalytes []struct{ Column, Value string } `json:"other_analytes"`
+			Quality       struct {
+				Seawater bool
+				Flags    []string
+			}
+		}
+	}
+	if err := json.Unmarshal([]byte(r.stdout), &doc); err != nil {
+		t.Fatal(err)
+	}
+	if len(doc.Samples) != 2 {
+		t.Fatalf("%d samples, want 2", len(doc.Samples))
+	}
+	makeup, sea := doc.Samples[0], doc.Samples[1]
+	if makeup.Date != "2026-02-03 09:15" || sea.Date != "2026-02-14" {
+		t.Errorf("dates %q and %q, want 2026-02-03 09:15 and 2026-02-14", makeup.Date, sea.Date)
+	}
+	if len(makeup.OtherAnalytes) != 7 || len(sea.OtherAnalytes) != 4 {
+		t.Errorf("other analytes %+v and %+v, want 7 and 4", makeup.OtherAnalytes, sea.OtherAnalytes)
+	}
+	if !sea.Quality.Seawater || len(sea.Quality.Flags) != 0 {
+		t.Errorf("sea intake: seawater %v, flags %q; want seawater-like and no flag", sea.Quality.Seawater, sea.Quality.Flags)
+	}
+	if makeup.Quality.Seawater {
+		t.Errorf("makeup taken as seawater-like")
+	}
+}
