@@ -1,6 +1,7 @@
 package saturation
 
 import (
+	"cmp"
 	"errors"
 	"fmt"
 	"math"
@@ -381,9 +382,9 @@ func (sr *search) joint(idx []int) ([]float64, error) {
 func (sr *search) jointActiveSet(idx []int) ([]float64, error) {
 	n := len(idx)
 	x := make([]float64, n)
-	active := make([]bool, n)
-	for k := range active {
-		active[k] = true
+	active, err := sr.startingSet(idx)
+	if err != nil {
+		return nil, err
 	}
 	act, mins := make([]int, 0, n), make([]int, 0, n)
 	xa, x0 := make([]float64, n), make([]float64, n)
@@ -434,9 +435,96 @@ func (sr *search) jointActiveSet(idx []int) ([]float64, error) {
 		if at < 0 {
 			return x, nil
 		}
-		active[at] = true
+		if err := sr.join(idx, active, x, at); err != nil {
+			return nil, err
+		}
 	}
 	return nil, errors.New("the active set did not settle")
+}
+
+// startingSet returns the first active set of jointActiveSet: the minerals
+// idx, most supersaturated first, each kept only when its reaction is
+// linearly independent of those kept before it. Minerals whose reactions
+// are dependent — a reciprocal salt pair such as calcite + celestite =
+// strontianite + anhydrite — cannot in general all be saturated at once
+// (the phase rule), and holding them all makes the equilibrium system
+// singular.
+func (sr *search) startingSet(idx []int) ([]bool, error) {
+	sr.reset()
+	if err := sr.s.solve(sr.p, true); err != nil {
+		return nil, err
+	}
+	order := make([]int, len(idx))
+	si := make([]float64, len(idx))
+	for k := range idx {
+		order[k] = k
+		si[k], _ = sr.s.mineralSI(idx[k])
+	}
+	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(si[b], si[a]) })
+	active := make([]bool, len(idx))
+	var kept []int
+	for _, k := range order {
+		if sr.independent(append(kept, idx[k])) {
+			kept = append(kept, idx[k])
+			active[k] = true
+		}
+	}
+	return active, nil
+}
+
+// join adds mineral at (an index into idx) to the active set. When its
+// reaction depends on those of the active minerals, it takes the place of
+// the active mineral of that dependence with the smallest amount x (the
+// one nearest to dissolving), as a pivot of the phase assemblage.
+func (sr *search) join(idx []int, active []bool, x []float64, at int) error {
+	set := func(skip int) []int {
+		var out []int
+		for k := range idx {
+			if active[k] && k != skip {
+				out = append(out, idx[k])
+			}
+		}
+		return append(out, idx[at])
+	}
+	if sr.independent(set(-1)) {
+		active[at] = true
+		return nil
+	}
+	out := -1
+	for k := range idx {
+		if active[k] && sr.independent(set(k)) && (out < 0 || x[k] < x[out]) {
+			out = k
+		}
+	}
+	if out < 0 {
+		return fmt.Errorf("%s cannot join the minerals at saturation", sr.s.m.minerals[idx[at]].name)
+	}
+	active[out], active[at] = false, true
+	return nil
+}
+
+// independent reports whether the reactions of the minerals (indices in
+// the search's model) on the masters (H+ included) are linearly
+// independent: the rank of their stoichiometric matrix, by singular values
+// (gonum), equals their number.
+func (sr *search) independent(minerals []int) bool {
+	m := sr.s.m
+	rows, cols := len(minerals), len(m.masters)
+	if rows > cols {
+		return false
+	}
+	a := mat.NewDense(rows, cols, nil)
+	for r, i := range minerals {
+		for _, t := range m.minerals[i].nu {
+			a.Set(r, t.j, t.coef)
+		}
+	}
+	var svd mat.SVD
+	if !svd.Factorize(a, mat.SVDNone) {
+		return false
+	}
+	vals := svd.Values(nil)
+	return vals[len(vals)-1] > 1e-9*vals[0]
 }
 
 // jointByDifferences is joint by damped Newton with a finite-difference
@@ -447,9 +535,9 @@ func (sr *search) jointByDifferences(idx []int) ([]float64, error) {
 	if n == 0 {
 		return x, nil
 	}
-	active := make([]bool, n)
-	for k := range active {
-		active[k] = true
+	active, err := sr.startingSet(idx)
+	if err != nil {
+		return nil, err
 	}
 	sis := func(x []float64) ([]float64, error) {
 		out := make([]float64, len(x))
