@@ -135,11 +135,21 @@ func reagentFlag(cmd *cobra.Command, name string, strength float64) (water.Reage
 	return r, nil
 }
 
+// cyclesOptions holds the flags of cycles beyond the shared ones.
+type cyclesOptions struct {
+	common        commonFlags
+	uncertainty   uncertaintyFlags
+	limits        string
+	limitsProfile string
+	carbonate     string
+	reagent       string
+	maxN          float64
+	step          float64
+	evaporation   float64
+}
+
 func newCyclesCmd(stdin io.Reader) *cobra.Command {
-	c := &commonFlags{}
-	u := &uncertaintyFlags{}
-	var limits, limitsProfile, carbonate, reagent string
-	var maxN, step, evaporation float64
+	o := &cyclesOptions{}
 	cmd := &cobra.Command{
 		Use:   "cycles [FILE...|-] [--limits no-inhibitor|inhibitor|FILE] [--carbonate natural|relation=A,B|air|acid=V|closed]",
 		Short: "Highest cycles of concentration of a makeup water under a limit profile, and the limiting mineral",
@@ -157,79 +167,100 @@ func newCyclesCmd(stdin io.Reader) *cobra.Command {
 			"Temperature: the limits are judged at the bulk (the sample's, or --temperature) and at\n" +
 			"--skin-temperature (default 60 °C, a common tube-wall temperature; the bulk pH held, as the\n" +
 			"classic skin index); the stricter answer is given and the output says which governs.\n\n" + reports.Caution,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			format, opt, ropt, err := c.setup(cmd)
-			if err != nil {
-				return err
-			}
-			profile, err := loadProfile(limits, limitsProfile, opt.Model)
-			if err != nil {
-				return err
-			}
-			rule, err := parseRule(cmd, carbonate)
-			if err != nil {
-				return err
-			}
-			if rule.SetPoint != 0 {
-				r, err := water.LookupReagent(reagent)
-				if err != nil {
-					return badInput(err)
-				}
-				if !(r.AlkalinityPerMol < 0) {
-					return badInput(fmt.Errorf("--reagent %s cannot hold a pH set point: it is not an acid", r.Name))
-				}
-				rule = rule.WithReagent(r)
-			}
-			if !(maxN > 1 && maxN <= 100) {
-				return badInput(fmt.Errorf("--max %g: want more than 1 and at most 100 cycles", maxN))
-			}
-			if !(step >= (maxN-1)/1000) || math.IsInf(step, 0) || !(evaporation >= 0) || math.IsInf(evaporation, 0) {
-				return badInput(fmt.Errorf("--step must be at least (max−1)/1000 = %g and --evaporation a finite 0 or more", (maxN-1)/1000))
-			}
-			mc, withDraws, err := u.settings()
-			if err != nil {
-				return err
-			}
-			run, src, err := c.runner(cmd, args, stdin, ropt)
-			if err != nil {
-				return err
-			}
-			if withDraws {
-				return cyclesUncertain(cmd, c, run, src, format, cyclesQuestion{profile, rule, carbonate, maxN, step, evaporation}, opt, mc)
-			}
-			w := reports.NewCyclesWriter(run.out, format, c.writeOptions(cmd))
-			return stream(run, src, w, batch[reports.CyclesOutcome]{
-				newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
-					return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
-						a := rec.Analysis
-						if a.Role.Circulating() {
-							// A tower water is asked its margin to the limits.
-							m, err := saturation.Margin(a, profile, rule, maxN, math.NaN(), opt)
-							out := reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Margin: m, Err: err}
-							if m != nil {
-								out.Result = m.Further
-							}
-							return out, err
-						}
-						r, err := saturation.MaxCycles(a, profile, rule, maxN, step, opt)
-						return reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Result: r, Evaporation: evaporation, Err: err}, err
-					}
-				},
-			})
-		},
+		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },
 	}
-	c.register(cmd)
-	u.register(cmd)
-	f := cmd.Flags()
-	f.StringVar(&limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
-	registerLimitsProfile(cmd, &limitsProfile)
-	f.StringVar(&carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, acid=VALUE (acid control; ph=VALUE is the old spelling) or closed")
-	f.StringVar(&reagent, "reagent", "h2so4", "acid that holds a ph= set point: h2so4 or hcl")
-	f.Float64Var(&maxN, "max", 15, "highest cycles to search")
-	f.Float64Var(&step, "step", 0.5, "step of the cycles table")
-	f.Float64Var(&evaporation, "evaporation", 0, "evaporation of the tower, m³/h, to give make-up and blowdown")
-	c.registerSkin(cmd, reports.DefaultSkinTemperature)
+	o.register(cmd)
 	return cmd
+}
+
+// register adds the flags of cycles to cmd.
+func (o *cyclesOptions) register(cmd *cobra.Command) {
+	o.common.register(cmd)
+	o.uncertainty.register(cmd)
+	f := cmd.Flags()
+	f.StringVar(&o.limits, "limits", "inhibitor", "limit profile: no-inhibitor, inhibitor, or a CSV file of your own")
+	registerLimitsProfile(cmd, &o.limitsProfile)
+	f.StringVar(&o.carbonate, "carbonate", "natural", "carbonate rule: natural, relation=A,B, air, acid=VALUE (acid control; ph=VALUE is the old spelling) or closed")
+	f.StringVar(&o.reagent, "reagent", "h2so4", "acid that holds a ph= set point: h2so4 or hcl")
+	f.Float64Var(&o.maxN, "max", 15, "highest cycles to search")
+	f.Float64Var(&o.step, "step", 0.5, "step of the cycles table")
+	f.Float64Var(&o.evaporation, "evaporation", 0, "evaporation of the tower, m³/h, to give make-up and blowdown")
+	o.common.registerSkin(cmd, reports.DefaultSkinTemperature)
+}
+
+// rule parses --carbonate and, for an acid set point, the acid of
+// --reagent that holds it.
+func (o *cyclesOptions) rule(cmd *cobra.Command) (saturation.CarbonateRule, error) {
+	rule, err := parseRule(cmd, o.carbonate)
+	if err != nil {
+		return rule, err
+	}
+	if rule.SetPoint != 0 {
+		r, err := water.LookupReagent(o.reagent)
+		if err != nil {
+			return rule, badInput(err)
+		}
+		if !(r.AlkalinityPerMol < 0) {
+			return rule, badInput(fmt.Errorf("--reagent %s cannot hold a pH set point: it is not an acid", r.Name))
+		}
+		rule = rule.WithReagent(r)
+	}
+	return rule, nil
+}
+
+// run checks the flags and streams the highest cycles (or a tower
+// water's margin) of every sample.
+func (o *cyclesOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) error {
+	c := &o.common
+	format, opt, ropt, err := c.setup(cmd)
+	if err != nil {
+		return err
+	}
+	profile, err := loadProfile(o.limits, o.limitsProfile, opt.Model)
+	if err != nil {
+		return err
+	}
+	rule, err := o.rule(cmd)
+	if err != nil {
+		return err
+	}
+	maxN, step, evaporation, carbonate := o.maxN, o.step, o.evaporation, o.carbonate
+	if !(maxN > 1 && maxN <= 100) {
+		return badInput(fmt.Errorf("--max %g: want more than 1 and at most 100 cycles", maxN))
+	}
+	if !(step >= (maxN-1)/1000) || math.IsInf(step, 0) || !(evaporation >= 0) || math.IsInf(evaporation, 0) {
+		return badInput(fmt.Errorf("--step must be at least (max−1)/1000 = %g and --evaporation a finite 0 or more", (maxN-1)/1000))
+	}
+	mc, withDraws, err := o.uncertainty.settings()
+	if err != nil {
+		return err
+	}
+	run, src, err := c.runner(cmd, args, stdin, ropt)
+	if err != nil {
+		return err
+	}
+	if withDraws {
+		return cyclesUncertain(cmd, c, run, src, format, cyclesQuestion{profile, rule, carbonate, maxN, step, evaporation}, opt, mc)
+	}
+	w := reports.NewCyclesWriter(run.out, format, c.writeOptions(cmd))
+	return stream(run, src, w, batch[reports.CyclesOutcome]{
+		newWorker: func() func(string, water.Record) (reports.CyclesOutcome, error) {
+			return func(_ string, rec water.Record) (reports.CyclesOutcome, error) {
+				a := rec.Analysis
+				if a.Role.Circulating() {
+					// A tower water is asked its margin to the limits.
+					m, err := saturation.Margin(a, profile, rule, maxN, math.NaN(), opt)
+					out := reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Margin: m, Err: err}
+					if m != nil {
+						out.Result = m.Further
+					}
+					return out, err
+				}
+				r, err := saturation.MaxCycles(a, profile, rule, maxN, step, opt)
+				return reports.CyclesOutcome{Name: rec.Name, Carbonate: carbonate, Role: a.Role.String(), Result: r, Evaporation: evaporation, Err: err}, err
+			}
+		},
+	})
 }
 
 // loadProfile returns an embedded profile by name or the first profile of

@@ -11,10 +11,20 @@ import (
 	"scalerisk/water"
 )
 
+// membraneOptions holds the flags of membrane beyond the shared ones.
+type membraneOptions struct {
+	common        commonFlags
+	limits        string
+	limitsProfile string
+	reagent       string
+	recovery      float64
+	beta          float64
+	target        float64
+	strength      float64
+}
+
 func newMembraneCmd(stdin io.Reader) *cobra.Command {
-	c := &commonFlags{}
-	var limits, limitsProfile, reagent string
-	var recovery, beta, target, strength float64
+	o := &membraneOptions{}
 	cmd := &cobra.Command{
 		Use:   "membrane [FILE...|-] [--recovery R] [--limits membrane|FILE] [--target-recovery R --reagent ACID]",
 		Short: "Reverse osmosis: the concentrate at a recovery, the highest recovery under limits, the acid for a target recovery",
@@ -31,65 +41,77 @@ func newMembraneCmd(stdin io.Reader) *cobra.Command {
 			reports.DoseCaution,
 		Example: `  scalerisk membrane --demo --recovery 0.75
   scalerisk membrane feed.csv --target-recovery 0.8 --reagent sulfuric --format json`,
-		RunE: func(cmd *cobra.Command, args []string) error {
-			format, opt, ropt, err := c.setup(cmd)
-			if err != nil {
-				return err
-			}
-			if !(recovery >= 0 && recovery <= saturation.MaxRecoverySearch) {
-				return badInput(fmt.Errorf("--recovery %g: want 0 to %g", recovery, saturation.MaxRecoverySearch))
-			}
-			if !(target >= 0 && target <= saturation.MaxRecoverySearch) {
-				return badInput(fmt.Errorf("--target-recovery %g: want 0 (none) to %g", target, saturation.MaxRecoverySearch))
-			}
-			if !(beta >= 1 && beta <= 2) {
-				return badInput(fmt.Errorf("--polarisation %g: want 1 to 2", beta))
-			}
-			profile, err := loadProfile(limits, limitsProfile, opt.Model)
-			if err != nil {
-				return err
-			}
-			acid, err := reagentFlag(cmd, reagent, strength)
-			if err != nil {
-				return err
-			}
-			if !(acid.AlkalinityPerMol < 0) {
-				return badInput(fmt.Errorf("--reagent %s is not an acid", acid.Name))
-			}
-			m := saturation.Membrane{Polarisation: beta}
-			run, src, err := c.runner(cmd, args, stdin, ropt)
-			if err != nil {
-				return err
-			}
-			w := reports.NewMembraneWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
-			return stream(run, src, w, batch[reports.MembraneOutcome]{
-				newWorker: func() func(string, water.Record) (reports.MembraneOutcome, error) {
-					return func(_ string, rec water.Record) (reports.MembraneOutcome, error) {
-						o := reports.MembraneOutcome{Name: rec.Name, Membrane: m}
-						if o.Water, o.Err = saturation.ConcentrateAt(rec.Analysis, recovery, m, opt); o.Err != nil {
-							return o, o.Err
-						}
-						if o.Max, o.Err = saturation.MaxRecovery(rec.Analysis, m, profile, opt); o.Err != nil {
-							return o, o.Err
-						}
-						if target > 0 {
-							o.Acid, o.AcidErr = saturation.AcidForRecovery(rec.Analysis, acid, strength, target, m, profile, opt)
-						}
-						return o, o.AcidErr
-					}
-				},
-			})
-		},
+		RunE: func(cmd *cobra.Command, args []string) error { return o.run(cmd, args, stdin) },
 	}
-	c.register(cmd)
-	c.registerSkin(cmd, 0)
-	f := cmd.Flags()
-	registerLimitsProfile(cmd, &limitsProfile)
-	f.Float64Var(&recovery, "recovery", 0.75, "recovery of the stage, 0–0.95 (permeate / feed)")
-	f.Float64Var(&beta, "polarisation", saturation.DefaultPolarisation, "concentration-polarisation factor at the membrane surface, 1–2")
-	f.StringVar(&limits, "limits", "membrane", "limit profile at the membrane surface: membrane, inhibitor, no-inhibitor, or a CSV file")
-	f.Float64Var(&target, "target-recovery", 0, "recovery to reach with acid in the feed (0: none)")
-	f.StringVar(&reagent, "reagent", "h2so4", "acid for --target-recovery: h2so4 or hcl (by formula or name)")
-	f.Float64Var(&strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+	o.register(cmd)
 	return cmd
+}
+
+// register adds the flags of membrane to cmd.
+func (o *membraneOptions) register(cmd *cobra.Command) {
+	o.common.register(cmd)
+	o.common.registerSkin(cmd, 0)
+	f := cmd.Flags()
+	registerLimitsProfile(cmd, &o.limitsProfile)
+	f.Float64Var(&o.recovery, "recovery", 0.75, "recovery of the stage, 0–0.95 (permeate / feed)")
+	f.Float64Var(&o.beta, "polarisation", saturation.DefaultPolarisation, "concentration-polarisation factor at the membrane surface, 1–2")
+	f.StringVar(&o.limits, "limits", "membrane", "limit profile at the membrane surface: membrane, inhibitor, no-inhibitor, or a CSV file")
+	f.Float64Var(&o.target, "target-recovery", 0, "recovery to reach with acid in the feed (0: none)")
+	f.StringVar(&o.reagent, "reagent", "h2so4", "acid for --target-recovery: h2so4 or hcl (by formula or name)")
+	f.Float64Var(&o.strength, "strength", 0, "product strength, percent (default: the reagent table's usual strength)")
+}
+
+// run checks the flags and streams each feed's concentrate, highest
+// recovery and, with --target-recovery, the acid that reaches it.
+func (o *membraneOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) error {
+	c := &o.common
+	limits, limitsProfile, reagent := o.limits, o.limitsProfile, o.reagent
+	recovery, beta, target, strength := o.recovery, o.beta, o.target, o.strength
+	format, opt, ropt, err := c.setup(cmd)
+	if err != nil {
+		return err
+	}
+	if !(recovery >= 0 && recovery <= saturation.MaxRecoverySearch) {
+		return badInput(fmt.Errorf("--recovery %g: want 0 to %g", recovery, saturation.MaxRecoverySearch))
+	}
+	if !(target >= 0 && target <= saturation.MaxRecoverySearch) {
+		return badInput(fmt.Errorf("--target-recovery %g: want 0 (none) to %g", target, saturation.MaxRecoverySearch))
+	}
+	if !(beta >= 1 && beta <= 2) {
+		return badInput(fmt.Errorf("--polarisation %g: want 1 to 2", beta))
+	}
+	profile, err := loadProfile(limits, limitsProfile, opt.Model)
+	if err != nil {
+		return err
+	}
+	acid, err := reagentFlag(cmd, reagent, strength)
+	if err != nil {
+		return err
+	}
+	if !(acid.AlkalinityPerMol < 0) {
+		return badInput(fmt.Errorf("--reagent %s is not an acid", acid.Name))
+	}
+	m := saturation.Membrane{Polarisation: beta}
+	run, src, err := c.runner(cmd, args, stdin, ropt)
+	if err != nil {
+		return err
+	}
+	w := reports.NewMembraneWriter(cmd.OutOrStdout(), format, c.writeOptions(cmd))
+	return stream(run, src, w, batch[reports.MembraneOutcome]{
+		newWorker: func() func(string, water.Record) (reports.MembraneOutcome, error) {
+			return func(_ string, rec water.Record) (reports.MembraneOutcome, error) {
+				out := reports.MembraneOutcome{Name: rec.Name, Membrane: m}
+				if out.Water, out.Err = saturation.ConcentrateAt(rec.Analysis, recovery, m, opt); out.Err != nil {
+					return out, out.Err
+				}
+				if out.Max, out.Err = saturation.MaxRecovery(rec.Analysis, m, profile, opt); out.Err != nil {
+					return out, out.Err
+				}
+				if target > 0 {
+					out.Acid, out.AcidErr = saturation.AcidForRecovery(rec.Analysis, acid, strength, target, m, profile, opt)
+				}
+				return out, out.AcidErr
+			}
+		},
+	})
 }
