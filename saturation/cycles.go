@@ -290,74 +290,119 @@ func MaxCycles(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN,
 	if opt.AtTemperature {
 		bulkT = opt.Temperature
 	}
-	skin := skinOf(bulkT, opt)
+	cp := &cyclesProblem{sp: sp, base: base, rule: rule, opt: opt, skin: skinOf(bulkT, opt)}
 	res := &CyclesResult{Profile: profile, Rule: rule, MaxCycles: maxN,
-		Judged: Judgement{Bulk: bulkT, Skin: skin, AtSkin: math.NaN(), Governing: bulkT}}
-	eval := func(n float64) CyclePoint {
-		pt := CyclePoint{Cycles: n}
-		w, err := base.Concentrate(n)
-		if err != nil {
-			pt.Err = err
-			return pt
-		}
-		pt.Result, _, pt.Dose, pt.Err = rule.apply(sp, w, opt)
-		if pt.Err == nil {
-			pt.Indices, _ = sp.ClassicIndicesNoCCPP(pt.Result)
-		}
-		if pt.Err == nil && !math.IsNaN(skin) {
-			pt.Skin, pt.SkinIndices, pt.Err = sp.heat(pt.Result, skin, opt)
-		}
+		Judged: Judgement{Bulk: bulkT, Skin: cp.skin, AtSkin: math.NaN(), Governing: bulkT}}
+	res.Points = cp.grid(maxN, step)
+	if first := res.Points[0]; first.Err != nil {
+		return nil, first.Err
+	}
+	pick := cp.judge(res, profile)
+	res.MaxCycles, res.Limiting, res.Exceeded = pick.max, pick.limiting, pick.exceeded
+	res.Warnings = append(res.Warnings, pick.warnings...)
+	if w := cyclesVerdict(res, pick, maxN); w != "" {
+		res.Warnings = append(res.Warnings, w)
+	}
+	return res, nil
+}
+
+// cyclesProblem is one MaxCycles search: the fixed makeup, the carbonate
+// rule, the options (whose activity model grid may pin, see grid) and the
+// skin temperature (NaN when judged at the bulk only).
+type cyclesProblem struct {
+	sp   *Speciator
+	base water.Analysis
+	rule CarbonateRule
+	opt  Options
+	skin float64
+}
+
+// eval is the makeup concentrated n times with its carbonate state set by
+// rule, speciated at the bulk and, with a skin temperature, heated to it.
+// A failure is kept in the point's Err.
+func (cp *cyclesProblem) eval(n float64) CyclePoint {
+	pt := CyclePoint{Cycles: n}
+	w, err := cp.base.Concentrate(n)
+	if err != nil {
+		pt.Err = err
 		return pt
 	}
+	pt.Result, _, pt.Dose, pt.Err = cp.rule.apply(cp.sp, w, cp.opt)
+	if pt.Err == nil {
+		pt.Indices, _ = cp.sp.ClassicIndicesNoCCPP(pt.Result)
+	}
+	if pt.Err == nil && !math.IsNaN(cp.skin) {
+		pt.Skin, pt.SkinIndices, pt.Err = cp.sp.heat(pt.Result, cp.skin, cp.opt)
+	}
+	return pt
+}
+
+// grid evaluates the points 1, 1+step, ... up to maxN (maxN always
+// included). With the Auto activity model, when the points would mix
+// models, one model is pinned for the whole search (see Sweep) and the
+// points are evaluated again with it.
+func (cp *cyclesProblem) grid(maxN, step float64) []CyclePoint {
+	var pts []CyclePoint
 	for k := 0; ; k++ {
 		n := 1 + float64(k)*step
 		if n > maxN+1e-9 {
 			break
 		}
-		res.Points = append(res.Points, eval(n))
+		pts = append(pts, cp.eval(n))
 	}
-	if last := res.Points[len(res.Points)-1].Cycles; last < maxN-1e-9 {
-		res.Points = append(res.Points, eval(maxN))
+	if last := pts[len(pts)-1].Cycles; last < maxN-1e-9 {
+		pts = append(pts, cp.eval(maxN))
 	}
 	// One activity model over the whole search (see Sweep).
-	if opt.Activity == Auto {
+	if cp.opt.Activity == Auto {
 		var ps []Point
-		for _, p := range res.Points {
+		for _, p := range pts {
 			ps = append(ps, Point{Result: p.Result})
 		}
-		if m, mixed := uniformModel(ps, opt); mixed {
-			opt.Activity = m
-			for k := range res.Points {
-				res.Points[k] = eval(res.Points[k].Cycles)
+		if m, mixed := uniformModel(ps, cp.opt); mixed {
+			cp.opt.Activity = m
+			for k := range pts {
+				pts[k] = cp.eval(pts[k].Cycles)
 			}
 		}
 	}
-	if first := res.Points[0]; first.Err != nil {
-		return nil, first.Err
-	}
-	bulk := judgeCycles(res.Points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Result, p.Indices })
+	return pts
+}
+
+// judge finds the highest cycles under profile at the bulk and, with a
+// skin temperature, at the skin, and returns the lower (on a tie, the one
+// with more limits already exceeded). It sets the cycles of res.Judged
+// (and Governing when the skin governs).
+func (cp *cyclesProblem) judge(res *CyclesResult, profile LimitProfile) cyclesAnswer {
+	bulk := judgeCycles(res.Points, profile, cp.eval, func(p CyclePoint) (*Result, Indices) { return p.Result, p.Indices })
 	pick := bulk
 	res.Judged.AtBulk = bulk.max
-	if !math.IsNaN(skin) {
-		hot := judgeCycles(res.Points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Skin, p.SkinIndices })
+	if !math.IsNaN(cp.skin) {
+		hot := judgeCycles(res.Points, profile, cp.eval, func(p CyclePoint) (*Result, Indices) { return p.Skin, p.SkinIndices })
 		res.Judged.AtSkin = hot.max
 		if hot.max < bulk.max || (hot.max == bulk.max && len(hot.exceeded) > len(bulk.exceeded)) {
-			pick, res.Judged.Governing = hot, skin
+			pick, res.Judged.Governing = hot, cp.skin
 		}
 	}
-	res.MaxCycles, res.Limiting, res.Exceeded = pick.max, pick.limiting, pick.exceeded
-	res.Warnings = append(res.Warnings, pick.warnings...)
+	return pick
+}
+
+// cyclesVerdict is the closing warning of a MaxCycles answer: the makeup
+// (heated to the skin when that governs) already over the profile, or no
+// limit reached up to maxN; "" otherwise.
+func cyclesVerdict(res *CyclesResult, pick cyclesAnswer, maxN float64) string {
 	if len(pick.exceeded) > 0 {
 		where := "the makeup itself"
 		if res.Judged.SkinGoverns() {
-			where = fmt.Sprintf("the makeup heated to the %g °C skin", skin)
+			where = fmt.Sprintf("the makeup heated to the %g °C skin", res.Judged.Skin)
 		}
-		res.Warnings = append(res.Warnings, fmt.Sprintf("%s already exceeds the %s profile for %s: no cycles are safe without treatment",
-			where, profile.Name, strings.Join(pick.exceeded, ", ")))
-	} else if pick.limiting == "" && pick.err == nil {
-		res.Warnings = append(res.Warnings, fmt.Sprintf("no limit of the %s profile is reached up to %g cycles", profile.Name, maxN))
+		return fmt.Sprintf("%s already exceeds the %s profile for %s: no cycles are safe without treatment",
+			where, res.Profile.Name, strings.Join(pick.exceeded, ", "))
 	}
-	return res, nil
+	if pick.limiting == "" && pick.err == nil {
+		return fmt.Sprintf("no limit of the %s profile is reached up to %g cycles", res.Profile.Name, maxN)
+	}
+	return ""
 }
 
 // cyclesAnswer is the highest cycles under a profile judged at one

@@ -146,64 +146,12 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 	if target.Kind == "ph" {
 		skin = math.NaN()
 	}
+	pb := doseProblem{sp: sp, base: base, r: r, strength: strength, target: target, opt: opt, skin: skin}
 	res := &DoseResult{Reagent: r, Strength: strength, Target: target,
 		Judged: Judgement{Bulk: bulkT, Skin: skin, AtSkin: math.NaN(), Governing: bulkT}}
-	dosed := func(d float64) (Outcome, error) {
-		w, err := base.Dose(r, d, strength)
-		if err != nil {
-			return Outcome{}, err
-		}
-		rr, err := sp.Speciate(w, opt)
-		if err != nil {
-			return Outcome{}, err
-		}
-		ix, _ := sp.ClassicIndicesNoCCPP(rr)
-		return Outcome{Water: w, Result: rr, Indices: ix}, nil
-	}
-	gap := func(o Outcome) (float64, error) {
-		v, ok := target.Measure(o.Result, o.Indices)
-		if !ok {
-			return 0, fmt.Errorf("%w: %s cannot be evaluated for this water (see the warnings of assess)", ErrInconsistent, target.Kind)
-		}
-		return v - target.Value, nil
-	}
-	atBulk := func(d float64) (Outcome, float64, error) {
-		o, err := dosed(d)
-		if err != nil {
-			return Outcome{}, 0, err
-		}
-		f, err := gap(o)
-		return o, f, err
-	}
-	atSkin := func(d float64) (Outcome, float64, error) {
-		o, err := dosed(d)
-		if err != nil {
-			return Outcome{}, 0, err
-		}
-		hr, hix, err := sp.heat(o.Result, skin, opt)
-		if err != nil {
-			return Outcome{}, 0, err
-		}
-		h := Outcome{Water: o.Water, Result: hr, Indices: hix}
-		f, err := gap(h)
-		return h, f, err
-	}
-	bulk, err := searchDose(atBulk, r, target)
+	pick, err := pb.pick(res)
 	if err != nil {
 		return nil, err
-	}
-	res.Before = bulk.before
-	pick := bulk
-	res.Judged.AtBulk = bulk.dose
-	if !math.IsNaN(skin) {
-		hot, err := searchDose(atSkin, r, target)
-		if err != nil {
-			return nil, err
-		}
-		res.Judged.AtSkin = hot.dose
-		if stricterDose(target, bulk, hot, atBulk, atSkin) {
-			pick, res.Judged.Governing = hot, skin
-		}
 	}
 	res.Dose, res.Reached, res.Beyond = pick.dose, pick.reached, pick.beyond
 	res.Warnings = append(res.Warnings, pick.warnings...)
@@ -211,21 +159,120 @@ func DoseToTarget(a water.Analysis, r water.Reagent, strength float64, target Ta
 		res.After = res.Before
 		return res, nil
 	}
-	after, _, err := atBulk(pick.dose)
-	if err != nil {
+	if err := pb.after(res, pick.dose); err != nil {
 		return nil, err
 	}
-	res.After = after
-	if !math.IsNaN(skin) {
-		h, _, err := atSkin(pick.dose)
+	return res, nil
+}
+
+// doseProblem is one DoseToTarget search: the fixed water, the reagent at
+// its strength, the target and the skin temperature (NaN when the target
+// is judged at the bulk only).
+type doseProblem struct {
+	sp       *Speciator
+	base     water.Analysis
+	r        water.Reagent
+	strength float64
+	target   Target
+	opt      Options
+	skin     float64
+}
+
+// dosed is the base water after dose d (mg/L of reagent as supplied),
+// speciated at the bulk temperature with its classic indices.
+func (pb doseProblem) dosed(d float64) (Outcome, error) {
+	w, err := pb.base.Dose(pb.r, d, pb.strength)
+	if err != nil {
+		return Outcome{}, err
+	}
+	rr, err := pb.sp.Speciate(w, pb.opt)
+	if err != nil {
+		return Outcome{}, err
+	}
+	ix, _ := pb.sp.ClassicIndicesNoCCPP(rr)
+	return Outcome{Water: w, Result: rr, Indices: ix}, nil
+}
+
+// gap is the target's quantity of o less the target value; an error
+// (ErrInconsistent) when the quantity cannot be evaluated for this water.
+func (pb doseProblem) gap(o Outcome) (float64, error) {
+	v, ok := pb.target.Measure(o.Result, o.Indices)
+	if !ok {
+		return 0, fmt.Errorf("%w: %s cannot be evaluated for this water (see the warnings of assess)", ErrInconsistent, pb.target.Kind)
+	}
+	return v - pb.target.Value, nil
+}
+
+// atBulk is the outcome of dose d and its gap to the target at the bulk
+// temperature.
+func (pb doseProblem) atBulk(d float64) (Outcome, float64, error) {
+	o, err := pb.dosed(d)
+	if err != nil {
+		return Outcome{}, 0, err
+	}
+	f, err := pb.gap(o)
+	return o, f, err
+}
+
+// atSkin is the outcome of dose d heated to the skin temperature (bulk pH
+// held, see heat) and its gap to the target there.
+func (pb doseProblem) atSkin(d float64) (Outcome, float64, error) {
+	o, err := pb.dosed(d)
+	if err != nil {
+		return Outcome{}, 0, err
+	}
+	hr, hix, err := pb.sp.heat(o.Result, pb.skin, pb.opt)
+	if err != nil {
+		return Outcome{}, 0, err
+	}
+	h := Outcome{Water: o.Water, Result: hr, Indices: hix}
+	f, err := pb.gap(h)
+	return h, f, err
+}
+
+// pick searches the dose at the bulk and, with a skin temperature, at the
+// skin, and returns the stricter answer. It sets res.Before and the
+// doses of res.Judged (and Governing when the skin governs).
+func (pb doseProblem) pick(res *DoseResult) (doseAnswer, error) {
+	bulk, err := searchDose(pb.atBulk, pb.r, pb.target)
+	if err != nil {
+		return doseAnswer{}, err
+	}
+	res.Before = bulk.before
+	pick := bulk
+	res.Judged.AtBulk = bulk.dose
+	if !math.IsNaN(pb.skin) {
+		hot, err := searchDose(pb.atSkin, pb.r, pb.target)
 		if err != nil {
-			return nil, err
+			return doseAnswer{}, err
+		}
+		res.Judged.AtSkin = hot.dose
+		if stricterDose(pb.target, bulk, hot, pb.atBulk, pb.atSkin) {
+			pick, res.Judged.Governing = hot, pb.skin
+		}
+	}
+	return pick, nil
+}
+
+// after fills res with the water after dose d: res.After at the bulk,
+// res.SkinAfter at the skin (when judged there), and the warnings of the
+// dosed water and of the dose's side effects.
+func (pb doseProblem) after(res *DoseResult, d float64) error {
+	after, _, err := pb.atBulk(d)
+	if err != nil {
+		return err
+	}
+	res.After = after
+	if !math.IsNaN(pb.skin) {
+		h, _, err := pb.atSkin(d)
+		if err != nil {
+			return err
 		}
 		res.SkinAfter = &h
 	}
 	res.Warnings = append(res.Warnings, after.Water.Warnings...)
 	res.Warnings = append(res.Warnings, sideEffects(res.Before, after)...)
-	return res, nil
+	return nil
 }
 
 // doseAnswer is the dose that reaches a target judged at one temperature.

@@ -259,35 +259,8 @@ func AcidForRecovery(feed water.Analysis, r water.Reagent, strength, recovery fl
 		return nil, err
 	}
 	res := &MembraneAcidResult{Reagent: r, Strength: strength, Recovery: recovery}
-	f := ConcentrationFactor(recovery)
-	type state struct {
-		feed    Outcome
-		surface CyclePoint
-		excess  float64
-		which   string
-	}
-	at := func(d float64) (state, error) {
-		w, err := base0.Dose(r, d, strength)
-		if err != nil {
-			return state{}, err
-		}
-		fix, fr, err := s.sp.Fix(w, opt)
-		if err != nil {
-			return state{}, err
-		}
-		pt := s.eval(fix, fr.Molality("CO2[0]"), f)
-		if pt.Err != nil {
-			return state{}, pt.Err
-		}
-		e, which, _ := excessOf(profile, pt.Result, pt.Indices)
-		if pt.Skin != nil {
-			if he, hw, _ := excessOf(profile, pt.Skin, pt.SkinIndices); he > e {
-				e, which = he, hw
-			}
-		}
-		return state{feed: Outcome{Water: w, Result: fr}, surface: pt, excess: e, which: which}, nil
-	}
-	st, err := at(0)
+	ap := acidProblem{s: s, base: base0, r: r, strength: strength, f: ConcentrationFactor(recovery), profile: profile, opt: opt}
+	st, err := ap.at(0)
 	if err != nil {
 		return nil, err
 	}
@@ -296,36 +269,97 @@ func AcidForRecovery(feed water.Analysis, r water.Reagent, strength, recovery fl
 		res.Reached, res.Feed, res.Surface = true, st.feed, st.surface.Result
 		return res, nil
 	}
-	lo, hi := 0.0, 1.0
-	for {
-		sh, err := at(hi)
-		if err != nil {
-			return nil, err
-		}
-		if sh.excess <= 0 {
-			break
-		}
-		if sh.feed.Result.PH < minFeedPH || hi > maxDose {
-			res.Feed, res.Surface, res.Limiting = sh.feed, sh.surface.Result, sh.which
-			res.Warnings = append(res.Warnings, fmt.Sprintf("no dose of %s lets %.0f %% recovery hold the %s limits: at %.4g mg/L (feed pH %.2f) %s still fails; use an antiscalant or a lower recovery",
-				r.Name, 100*recovery, profile.Name, hi, sh.feed.Result.PH, sh.which))
-			return res, nil
-		}
-		lo, hi = hi, hi*2
+	lo, hi, stuck, err := ap.bracket()
+	if err != nil {
+		return nil, err
+	}
+	if stuck != nil {
+		res.Feed, res.Surface, res.Limiting = stuck.feed, stuck.surface.Result, stuck.which
+		res.Warnings = append(res.Warnings, fmt.Sprintf("no dose of %s lets %.0f %% recovery hold the %s limits: at %.4g mg/L (feed pH %.2f) %s still fails; use an antiscalant or a lower recovery",
+			r.Name, 100*recovery, profile.Name, hi, stuck.feed.Result.PH, stuck.which))
+		return res, nil
 	}
 	d, err := findRoot(func(d float64) (float64, error) {
-		sd, err := at(d)
+		sd, err := ap.at(d)
 		return sd.excess, err
 	}, lo, hi, 1e-4)
 	if err != nil {
 		return nil, errors.Join(errors.New("the acid dose was not refined"), err)
 	}
 	d *= 1 + 1e-6 // on the safe side of the edge
-	final, err := at(d)
+	final, err := ap.at(d)
 	if err != nil {
 		return nil, err
 	}
 	res.Dose, res.Reached, res.Feed, res.Surface = d, true, final.feed, final.surface.Result
 	res.Warnings = append(res.Warnings, final.feed.Water.Warnings...)
 	return res, nil
+}
+
+// acidProblem is one AcidForRecovery search: the fixed feed, the acid at
+// its strength, the concentration factor f of the target recovery and the
+// limit profile judged at the membrane surface.
+type acidProblem struct {
+	s        membraneSearch
+	base     water.Analysis
+	r        water.Reagent
+	strength float64
+	f        float64
+	profile  LimitProfile
+	opt      Options
+}
+
+// acidState is the feed after one acid dose and its membrane surface, with
+// the largest excess over the profile (bulk or skin) and the limit it is.
+type acidState struct {
+	feed    Outcome
+	surface CyclePoint
+	excess  float64
+	which   string
+}
+
+// at is the state after dose d (mg/L of product): the dosed feed fixed
+// (its CO2 passes the membrane), concentrated by f at the surface and
+// judged against the profile at the bulk and, when heated, at the skin.
+func (ap acidProblem) at(d float64) (acidState, error) {
+	w, err := ap.base.Dose(ap.r, d, ap.strength)
+	if err != nil {
+		return acidState{}, err
+	}
+	fix, fr, err := ap.s.sp.Fix(w, ap.opt)
+	if err != nil {
+		return acidState{}, err
+	}
+	pt := ap.s.eval(fix, fr.Molality("CO2[0]"), ap.f)
+	if pt.Err != nil {
+		return acidState{}, pt.Err
+	}
+	e, which, _ := excessOf(ap.profile, pt.Result, pt.Indices)
+	if pt.Skin != nil {
+		if he, hw, _ := excessOf(ap.profile, pt.Skin, pt.SkinIndices); he > e {
+			e, which = he, hw
+		}
+	}
+	return acidState{feed: Outcome{Water: w, Result: fr}, surface: pt, excess: e, which: which}, nil
+}
+
+// bracket grows the dose from 1 mg/L by doubling until the limits hold and
+// returns the bracket [lo, hi] of the edge. When the feed pH falls below
+// minFeedPH or the dose passes maxDose first, it returns the last state
+// (at hi) as stuck: no dose reaches the limits.
+func (ap acidProblem) bracket() (lo, hi float64, stuck *acidState, err error) {
+	lo, hi = 0.0, 1.0
+	for {
+		sh, err := ap.at(hi)
+		if err != nil {
+			return 0, 0, nil, err
+		}
+		if sh.excess <= 0 {
+			return lo, hi, nil, nil
+		}
+		if sh.feed.Result.PH < minFeedPH || hi > maxDose {
+			return lo, hi, &sh, nil
+		}
+		lo, hi = hi, hi*2
+	}
 }

@@ -86,9 +86,34 @@ func (s *solver) pitzerRefresh() float64 {
 // used away from the temperatures they are known at, and which components
 // keep ion-association activity coefficients.
 func (s *solver) pitzerWarnings(t float64) []string {
+	var out []string
+	only25, held := s.pitzerFlagged(t)
+	if len(only25) > 0 {
+		out = append(out, fmt.Sprintf("Pitzer parameters known at 25 °C only, used unchanged at %.4g °C (largest effect first): %s", t, listFlagged(only25)))
+	}
+	if len(held) > 0 {
+		out = append(out, fmt.Sprintf("Pitzer parameters outside their fitted temperature range at %.4g °C, held at the range limit: %s", t, listFlagged(held)))
+	}
+	if w := s.pitzerCoverageWarning(); w != "" {
+		out = append(out, w)
+	}
+	return out
+}
+
+// pzFlagged is a Pitzer parameter used away from the temperatures it is
+// known at, with its estimated effect on ln γ.
+type pzFlagged struct {
+	label string
+	size  float64
+}
+
+// pitzerFlagged lists the parameters of the solution just solved whose
+// unknown temperature change moves ln γ of a significant species by more
+// than pitzerSignificant at t (°C): only25 are known at 25 °C only and used
+// more than 5 K away; held have a fitted range that t is outside of.
+func (s *solver) pitzerFlagged(t float64) (only25, held []pzFlagged) {
 	ps := s.pz
 	set := ps.set
-	var out []string
 	sig := make([]bool, len(set.ionSpecies))
 	for p, i := range set.ionSpecies {
 		ps.m[p] = 0
@@ -98,11 +123,6 @@ func (s *solver) pitzerWarnings(t float64) []string {
 		sig[p] = s.significantSpecies(i)
 	}
 	I := math.Exp(s.lnI)
-	type flagged struct {
-		label string
-		size  float64
-	}
-	var only25, held []flagged
 	for _, tm := range set.terms {
 		p := tm.p
 		constant := !p.hasT && math.Abs(t-25) > 5
@@ -121,52 +141,56 @@ func (s *solver) pitzerWarnings(t float64) []string {
 			continue
 		}
 		if constant {
-			only25 = append(only25, flagged{p.label(), size})
+			only25 = append(only25, pzFlagged{p.label(), size})
 		} else {
-			held = append(held, flagged{fmt.Sprintf("%s (%g–%g °C)", p.label(), p.tMin, p.tMax), size})
+			held = append(held, pzFlagged{fmt.Sprintf("%s (%g–%g °C)", p.label(), p.tMin, p.tMax), size})
 		}
 	}
-	// The parameters that move ln γ most come first; the rest are counted.
-	list := func(xs []flagged) string {
-		slices.SortStableFunc(xs, func(a, b flagged) int {
-			if a.size != b.size {
-				return cmp.Compare(b.size, a.size)
-			}
-			return strings.Compare(a.label, b.label)
-		})
-		const most = 6
-		var names []string
-		for _, x := range xs[:min(most, len(xs))] {
-			names = append(names, x.label)
+	return only25, held
+}
+
+// listFlagged names the parameters that move ln γ most first (ties by
+// label), at most six, and counts the rest. It sorts xs in place.
+func listFlagged(xs []pzFlagged) string {
+	slices.SortStableFunc(xs, func(a, b pzFlagged) int {
+		if a.size != b.size {
+			return cmp.Compare(b.size, a.size)
 		}
-		if len(xs) > most {
-			return strings.Join(names, ", ") + fmt.Sprintf(" and %d more", len(xs)-most)
-		}
-		return strings.Join(names, ", ")
+		return strings.Compare(a.label, b.label)
+	})
+	const most = 6
+	var names []string
+	for _, x := range xs[:min(most, len(xs))] {
+		names = append(names, x.label)
 	}
-	if len(only25) > 0 {
-		out = append(out, fmt.Sprintf("Pitzer parameters known at 25 °C only, used unchanged at %.4g °C (largest effect first): %s", t, list(only25)))
+	if len(xs) > most {
+		return strings.Join(names, ", ") + fmt.Sprintf(" and %d more", len(xs)-most)
 	}
-	if len(held) > 0 {
-		out = append(out, fmt.Sprintf("Pitzer parameters outside their fitted temperature range at %.4g °C, held at the range limit: %s", t, list(held)))
-	}
+	return strings.Join(names, ", ")
+}
+
+// pitzerCoverageWarning warns when more than pitzerCoverage of the ionic
+// strength is carried by components outside the Pitzer parameter set
+// (they keep ion-association activity coefficients); "" otherwise.
+func (s *solver) pitzerCoverageWarning() string {
+	set := s.pz.set
 	share := outsideShare(func(c water.Component) float64 {
 		if c == water.C && s.p.cRow == rowAbsent {
 			return 0
 		}
 		return s.p.totals[set.model.compMaster[c]]
 	}, set.fallback)
-	if share > pitzerCoverage {
-		var outside []string
-		for _, c := range set.fallback {
-			if s.p.totals[set.model.compMaster[c]] > 0 || (c == water.C && s.p.cRow != rowAbsent) {
-				outside = append(outside, c.String())
-			}
-		}
-		out = append(out, fmt.Sprintf("%.0f %% of the ionic strength is carried by components outside the Pitzer parameter set (%s), which keep ion-association (Truesdell–Jones) activity coefficients: saturation indices are less certain than for a water of the major ions",
-			100*share, strings.Join(outside, ", ")))
+	if !(share > pitzerCoverage) {
+		return ""
 	}
-	return out
+	var outside []string
+	for _, c := range set.fallback {
+		if s.p.totals[set.model.compMaster[c]] > 0 || (c == water.C && s.p.cRow != rowAbsent) {
+			outside = append(outside, c.String())
+		}
+	}
+	return fmt.Sprintf("%.0f %% of the ionic strength is carried by components outside the Pitzer parameter set (%s), which keep ion-association (Truesdell–Jones) activity coefficients: saturation indices are less certain than for a water of the major ions",
+		100*share, strings.Join(outside, ", "))
 }
 
 // contribution estimates how much parameter term tm moves ln γ of the
