@@ -46,7 +46,7 @@ type panel struct {
 	Color  string
 	Points []xy
 	// SI draws the equilibrium line (SI = 0) and the near-equilibrium band
-	// (±0.2) and sizes the axis to show them.
+	// (±saturation.NearEquilibriumSI) and sizes the axis to show them.
 	SI bool
 	// Limit is the limit on the SI drawn as a dashed line; NaN for none.
 	Limit float64

@@ -209,8 +209,9 @@ func writeMembraneText(b *strings.Builder, m MembraneOutcome) {
 	writeNotes(b, notes)
 }
 
-// writeSurfaceTable lists the supersaturated minerals at the membrane
-// surface, highest first.
+// writeSurfaceTable lists the minerals at the membrane surface from the
+// near-equilibrium band up (SI above −saturation.NearEquilibriumSI),
+// highest first.
 func writeSurfaceTable(b *strings.Builder, s *WaterStateJSON) {
 	type row struct {
 		name string
@@ -218,7 +219,7 @@ func writeSurfaceTable(b *strings.Builder, s *WaterStateJSON) {
 	}
 	var rows []row
 	for n, v := range s.SaturationIndex {
-		if v > -0.2 {
+		if v > -saturation.NearEquilibriumSI {
 			rows = append(rows, row{n, v})
 		}
 	}
