@@ -43,9 +43,11 @@ func unsafeRune(r rune) bool {
 // formula: a cell that begins with =, +, -, @, tab or carriage return gets
 // a leading apostrophe (the usual rule, OWASP "CSV Injection"), unless it
 // is a plain number (a negative saturation index such as -0.35 is data,
-// not a formula). --raw-csv turns this off for pipelines.
+// not a formula) or a lone "-" (standard input as a file name; an operator
+// with nothing to act on is not a formula). --raw-csv turns this off for
+// pipelines.
 func SafeCSVCell(s string) string {
-	if s == "" || !strings.ContainsRune("=+-@\t\r", rune(s[0])) {
+	if s == "" || s == "-" || !strings.ContainsRune("=+-@\t\r", rune(s[0])) {
 		return s
 	}
 	if _, err := strconv.ParseFloat(s, 64); err == nil {

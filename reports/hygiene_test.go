@@ -30,6 +30,8 @@ func TestSafeCSVCell(t *testing.T) {
 		{"-0.35", "-0.35"}, // a negative saturation index
 		{"+1e-3", "+1e-3"},
 		{"", ""},
+		{"-", "-"}, // standard input named as the file
+		{"--1", "'--1"},
 		{"tower = 1", "tower = 1"},
 	} {
 		if got := SafeCSVCell(tc.in); got != tc.want {
