@@ -7,15 +7,15 @@ import (
 	"scalerisk/water"
 )
 
-// ChartOrder is the fixed order of the minerals a report charts: the scale
-// formers that matter for a cooling or process water (common practice:
-// calcium carbonate, calcium sulfate and silica first, then the sulfates of
-// barium and strontium, calcium fluoride and calcium phosphate), each with
-// the components the laboratory must report for it to be charted.
-var ChartOrder = []struct {
+// ChartMineral is a mineral of ChartOrder with the components the
+// laboratory must report for it to be charted.
+type ChartMineral struct {
 	Mineral string
 	Needs   []water.Component
-}{
+}
+
+// chartOrder is the table behind ChartOrder; no code writes it.
+var chartOrder = []ChartMineral{
 	{"calcite", []water.Component{water.Ca}},
 	{"gypsum", []water.Component{water.Ca, water.S}},
 	{"silica_amorphous", []water.Component{water.Si}},
@@ -25,6 +25,21 @@ var ChartOrder = []struct {
 	{"tricalcium_phosphate", []water.Component{water.Ca, water.P}},
 }
 
+// ChartOrder returns the fixed order of the minerals a report charts: the
+// scale formers that matter for a cooling or process water (common
+// practice: calcium carbonate, calcium sulfate and silica first, then the
+// sulfates of barium and strontium, calcium fluoride and calcium
+// phosphate), each with the components the laboratory must report for it
+// to be charted. The slice and its Needs are copies: a caller may edit
+// them without changing a later call.
+func ChartOrder() []ChartMineral {
+	out := slices.Clone(chartOrder)
+	for i := range out {
+		out[i].Needs = slices.Clone(out[i].Needs)
+	}
+	return out
+}
+
 // mineralsStep chooses the minerals the charts of a sample show: those of
 // ChartOrder whose components were reported, then any other mineral past
 // its limit in the sample or anywhere on its sweeps, in table order, unless
@@ -32,7 +47,7 @@ var ChartOrder = []struct {
 func mineralsStep(p *Sample, s Settings) error {
 	prof := s.LimitProfile()
 	var out []string
-	for _, c := range ChartOrder {
+	for _, c := range chartOrder {
 		reported := true
 		for _, comp := range c.Needs {
 			reported = reported && p.Input.Measured[comp]

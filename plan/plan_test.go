@@ -45,16 +45,17 @@ func TestComputeKeepsErrors(t *testing.T) {
 	}
 }
 
-// TestMineralsFixedOrder: the minerals charted follow plan.ChartOrder for
+// TestMineralsFixedOrder: the minerals charted follow plan.ChartOrder() for
 // every sample, then the minerals past a limit.
 func TestMineralsFixedOrder(t *testing.T) {
+	chart := plan.ChartOrder()
 	order := func(name string) int {
-		for i, c := range plan.ChartOrder {
+		for i, c := range chart {
 			if c.Mineral == name {
 				return i
 			}
 		}
-		return len(plan.ChartOrder)
+		return len(chart)
 	}
 	for _, a := range demo(t) {
 		p := plan.Compute(a, plan.Settings{})

@@ -57,15 +57,16 @@ func (ts *timeSeries) add(p *plan.Sample) {
 }
 
 // timeMinerals are the chart minerals of a water's samples, in the order of
-// plan.ChartOrder, then as they first appear.
+// plan.ChartOrder(), then as they first appear.
 func timeMinerals(pts []timePoint) []saturation.MineralResult {
+	order := plan.ChartOrder()
 	rank := func(name string) int {
-		for i, c := range plan.ChartOrder {
+		for i, c := range order {
 			if c.Mineral == name {
 				return i
 			}
 		}
-		return len(plan.ChartOrder)
+		return len(order)
 	}
 	var out []saturation.MineralResult
 	seen := map[string]bool{}

@@ -21,7 +21,7 @@ import (
 //     anhydrite (the hot side of calcium sulfate) and fluorite, in the order
 //     of the sweep table.
 //
-// The report charts its own list, plan.ChartOrder. JSON outputs carry
+// The report charts its own list, plan.ChartOrder(). JSON outputs carry
 // every mineral.
 var (
 	cyclesMinerals = []string{"calcite", "gypsum", "barite", "celestite", "silica_amorphous"}
