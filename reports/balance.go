@@ -248,18 +248,18 @@ func writeMarginText(b *strings.Builder, m *saturation.MarginResult, err error) 
 				where += "; " + strings.TrimPrefix(q, "si:") + ": " + note
 			}
 		}
-		fmt.Fprintf(b, "  Margin under the %s profile: none — already past the limit for %s (at %s).\n", m.Profile.Name, strings.Join(f.Exceeded, ", "), where)
+		fmt.Fprintf(b, "  Margin under the %s profile: none — already past the limit for %s (at %s).\n", m.Profile.Name, quantityLabels(f.Exceeded), clientText(where))
 	case f.Limiting == "":
 		fmt.Fprintf(b, "  Margin under the %s profile: no limit is reached even at %.3g times the present concentration.\n", m.Profile.Name, f.MaxCycles)
 	case !math.IsNaN(m.MaxCycles):
 		fmt.Fprintf(b, "  Margin under the %s profile: the water can be concentrated %.2f times further, to %.2f cycles (%.2f more), when %s reaches its limit (at %s).\n",
-			m.Profile.Name, f.MaxCycles, m.MaxCycles, m.CyclesMargin, f.Limiting, where)
+			m.Profile.Name, f.MaxCycles, m.MaxCycles, m.CyclesMargin, quantityLabel(f.Limiting), clientText(where))
 	default:
 		fmt.Fprintf(b, "  Margin under the %s profile: the water can be concentrated %.2f times further, when %s reaches its limit (at %s).\n",
-			m.Profile.Name, f.MaxCycles, f.Limiting, where)
+			m.Profile.Name, f.MaxCycles, quantityLabel(f.Limiting), clientText(where))
 	}
 	for _, l := range m.Limits {
-		fmt.Fprintf(b, "    %-28s  %10.4g  limit %-8g  margin %+.3g (at %.3g °C)\n", l.Quantity, math.Max(l.Value, nanTo(l.SkinValue, l.Value)), l.Max, l.Margin, l.Governing)
+		fmt.Fprintf(b, "    %-40s  %10.4g  limit %-8g  margin %+.3g (at %.3g °C)\n", quantityLabel(l.Quantity), math.Max(l.Value, nanTo(l.SkinValue, l.Value)), l.Max, l.Margin, l.Governing)
 	}
 }
 

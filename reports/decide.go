@@ -362,17 +362,17 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 			fit = " (" + strings.Join(fits, "; ") + ")"
 		}
 		fmt.Fprintf(b, "%s: the makeup itself is past the %s limits for %s%s (%s carbonate): treat it before cycling.\n",
-			c.Name, r.Profile.Name, strings.Join(r.Exceeded, ", "), fit, c.Carbonate)
+			c.Name, r.Profile.Name, quantityLabels(r.Exceeded), fit, c.Carbonate)
 	case r.Limiting == "":
 		fmt.Fprintf(b, "%s: no limit of the %s profile is reached up to %.3g cycles (%s carbonate).\n", c.Name, r.Profile.Name, r.MaxCycles, c.Carbonate)
 	default:
 		l, _ := r.Profile.Lookup(r.Limiting)
 		fit := ""
 		if note := saturation.FitNote(nil, r.Limiting, r.Judged.Governing); note != "" {
-			fit = " (" + note + ")"
+			fit = " (" + clientText(note) + ")"
 		}
 		fmt.Fprintf(b, "%s: at most %.2f cycles of concentration under the %s profile (%s carbonate, at %.3g °C); %s reaches its limit of %g there%s.\n",
-			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Judged.Governing, r.Limiting, l.Max, fit)
+			c.Name, r.MaxCycles, r.Profile.Name, c.Carbonate, r.Judged.Governing, quantityLabel(r.Limiting), l.Max, fit)
 	}
 	writeJudgement(b, r.Judged, func(v float64) string { return fmt.Sprintf("%.2f cycles", v) })
 	if c.Evaporation > 0 && r.MaxCycles > 1 {
@@ -390,9 +390,18 @@ func writeCyclesText(b *strings.Builder, c CyclesOutcome) {
 	for _, wn := range notes {
 		if !seen[wn] {
 			seen[wn] = true
-			fmt.Fprintf(b, "  - %s\n", wn)
+			fmt.Fprintf(b, "  - %s\n", clientText(wn))
 		}
 	}
+}
+
+// quantityLabels names limit quantities in words, joined by commas.
+func quantityLabels(qs []string) string {
+	words := make([]string, len(qs))
+	for i, q := range qs {
+		words[i] = quantityLabel(q)
+	}
+	return strings.Join(words, ", ")
 }
 
 // writeCyclesTable writes the text table of a cycles answer: pH, LSI, the
