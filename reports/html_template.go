@@ -148,6 +148,7 @@ a { color: var(--accent); }
   <li><a href="#summary">Summary</a></li>
   {{- range .Sections}}<li><a href="#{{.Anchor}}">{{.Name}}</a>{{if .Date}} <span class="muted">· {{.Date}}</span>{{end}}</li>{{end}}
   {{- if .Time}}<li><a href="#over-time">Indices over time</a></li>{{end}}
+  {{- if .Balances}}<li><a href="#water-balance">Makeup and tower water balance</a></li>{{end}}
   <li><a href="#methods">Methods and data sources</a></li>
   <li><a href="#cautions">Cautions</a></li>
 </ol>
@@ -306,7 +307,7 @@ a { color: var(--accent); }
 
 {{- if .Time}}
 <section id="over-time" class="break">
-<h2><span class="num">{{add (len .Sections) 2}}</span>Indices over time</h2>
+<h2><span class="num">{{.TimeNum}}</span>Indices over time</h2>
 <p class="muted small">Waters sampled on two or more dates, each sample at its own temperature. {{.TimeKey}}</p>
 {{- range .Time}}
 <figure>
@@ -319,8 +320,31 @@ a { color: var(--accent); }
 </section>
 {{- end}}
 
+{{- if .Balances}}
+<section id="water-balance">
+<h2><span class="num">{{.BalanceNum}}</span>Makeup and tower water balance</h2>
+<p class="muted small">Each tower (recirculating or blowdown) sample is set against the makeup of its system. Cycles of concentration are the tower concentration over the makeup concentration of each ion that stays in solution in a healthy tower (chloride, magnesium, sodium, silica, conductivity); the tower's cycles are their median. An ion whose cycles fall more than 10 % below is missing from the tower: its deficit is makeup × cycles − tower, and where it comes out of solution it deposits (common practice). Chloride can read high from chlorination and conductivity from acid feed, which is why the median is taken.</p>
+{{- range .Balances}}
+<h3>{{.Title}}</h3>
+{{- if .Where}}<p class="where">{{.Where}}</p>{{end}}
+{{- if .Error}}<p>The balance could not be made: {{.Error}}</p>{{else}}
+<p>Cycles of concentration: <strong>{{.Cycles}}</strong> (median of {{.Basis}}; spread {{.Spread}}).</p>
+<table>
+<thead><tr><th>Ion</th><th>Unit</th><th class="n">Makeup</th><th class="n">Tower</th><th class="n">Cycles</th><th class="n">Deficit</th>{{if .Kg}}<th class="n">Deficit, kg/day</th>{{end}}<th>Reading</th></tr></thead>
+<tbody>
+{{- range .Rows}}<tr><td>{{.Ion}}</td><td>{{.Unit}}</td><td class="n">{{.Makeup}}</td><td class="n">{{.Tower}}</td><td class="n">{{.Cycles}}</td><td class="n">{{.Deficit}}</td>{{if .Kg}}<td class="n">{{.Kg}}</td>{{end}}<td>{{.Reading}}</td></tr>{{end}}
+</tbody></table>
+<p class="muted small">{{if .Kg}}Deficits per day are at the flow given, taken as the tower's blowdown.{{else}}Deficits per day need the blowdown flow, which was not given.{{end}}</p>
+<p>{{.Missing}}</p>
+<p><strong>{{.Deposit}}</strong></p>
+{{- if .Notes}}<ul class="small">{{range .Notes}}<li>{{.}}</li>{{end}}</ul>{{end}}
+{{- end}}
+{{- end}}
+</section>
+{{- end}}
+
 <section id="methods" class="break">
-<h2><span class="num">{{if .Time}}{{add (len .Sections) 3}}{{else}}{{add (len .Sections) 2}}{{end}}</span>Methods and data sources</h2>
+<h2><span class="num">{{.MethodsNum}}</span>Methods and data sources</h2>
 {{- with .Methods}}
 <table class="kv"><tbody>
 <tr><td>Speciation</td><td>Mass balances of every component and the proton balance solved together by Newton–Raphson with the ion pairs and complexes of the table; saturation index SI = log<sub>10</sub>(IAP/K<sub>sp</sub>).</td></tr>
@@ -353,7 +377,7 @@ a { color: var(--accent); }
 </section>
 
 <section id="cautions">
-<h2><span class="num">{{if .Time}}{{add (len .Sections) 4}}{{else}}{{add (len .Sections) 3}}{{end}}</span>Cautions</h2>
+<h2><span class="num">{{.CautionsNum}}</span>Cautions</h2>
 <div class="caution">{{.Caution}}</div>
 <ul class="cautions">{{range .Cautions}}<li>{{.}}</li>{{end}}</ul>
 </section>

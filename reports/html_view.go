@@ -24,22 +24,25 @@ type pageView struct {
 	NotDetailed         int
 	Failed              []failedRow
 	Time                []chartView
-	TimeNote            string
-	Methods             methodsView
-	Bands               []bandRow
-	Caution             string
-	Cautions            []string
-	ChartCount          int
-	ChartCountText      string
-	DetailNote          string
-	LimitingNote        string
-	LimitsNote          string
-	TimeKey             string
-	ChartOptions        template.JS
-	EChartsJS           template.JS
-	EChartsVersion      string
-	EChartsLicense      string
-	EChartsNotice       string
+	Balances            []balanceView
+	// Section numbers of the parts after the samples' sections.
+	TimeNum, BalanceNum, MethodsNum, CautionsNum int
+	TimeNote                                     string
+	Methods                                      methodsView
+	Bands                                        []bandRow
+	Caution                                      string
+	Cautions                                     []string
+	ChartCount                                   int
+	ChartCountText                               string
+	DetailNote                                   string
+	LimitingNote                                 string
+	LimitsNote                                   string
+	TimeKey                                      string
+	ChartOptions                                 template.JS
+	EChartsJS                                    template.JS
+	EChartsVersion                               string
+	EChartsLicense                               string
+	EChartsNotice                                string
 }
 
 type chip struct{ Text, Class string }
@@ -192,4 +195,18 @@ func balanceChip(q water.Quality) chip {
 		return chip{text, "v-ok"}
 	}
 	return chip{text, "v-check"}
+}
+
+// numberParts numbers the parts that follow the samples' sections: the
+// summary is 1, the n sections 2 to n+1, then the indices over time and
+// the water balance when the page has them, the methods and the cautions.
+func (v *pageView) numberParts(n int) {
+	next := n + 2
+	if len(v.Time) > 0 {
+		v.TimeNum, next = next, next+1
+	}
+	if len(v.Balances) > 0 {
+		v.BalanceNum, next = next, next+1
+	}
+	v.MethodsNum, v.CautionsNum = next, next+1
 }

@@ -30,6 +30,9 @@ type HTMLWriter struct {
 	failed []keptSection // not computed, in input order, at most Detail
 	fails  []failedRow
 	times  *timeSeries
+	// balances keeps the makeup and circulating waters; their pairs are
+	// balanced in Finish.
+	balances plan.Balances
 	// listInputs collects head.Inputs from the samples added.
 	listInputs bool
 	closed     bool
@@ -83,6 +86,9 @@ func (hw *HTMLWriter) Add(p *plan.Sample) error {
 		hw.head.Inputs = append(hw.head.Inputs, p.File)
 	}
 	b := hw.b
+	if !p.BadInput {
+		hw.balances.Keep(p.Input, p.Flow)
+	}
 	if p.Result == nil {
 		row := failedRow{Name: p.Name, Where: sampleWhere(p), Error: sampleError(p), index: index}
 		if !p.BadInput && hw.budget() != 0 && (hw.budget() < 0 || len(hw.failed) < hw.budget()) {
@@ -180,6 +186,9 @@ func (hw *HTMLWriter) view() (*pageView, error) {
 	}
 	b.options = options
 	v.Time, v.TimeNote = b.timeCharts(hw.times)
+	pairs, _ := hw.balances.Pairs()
+	v.Balances = balanceViews(pairs)
+	v.numberParts(len(v.Sections))
 	v.Methods = b.methods()
 	v.ChartCount = len(options)
 	v.ChartCountText = plural(len(options), "chart", "charts")
