@@ -122,6 +122,12 @@ func compareRisk(x, y Ranked) int {
 // inhibitorProfile is the embedded "inhibitor" profile, whose SI limits
 // are the edges of RiskBand.
 func inhibitorProfile() LimitProfile {
-	p, _ := LimitProfileNamed("inhibitor")
-	return p
+	// The shared embedded profile, not a copy: Rank and BandUnder only read
+	// it, and Rank runs for every sample written.
+	for _, p := range embedded() {
+		if p.Name == "inhibitor" {
+			return p
+		}
+	}
+	return LimitProfile{}
 }
