@@ -43,10 +43,12 @@ const MaxLineBytes = 1 << 20
 // date, temperature [C|F|K], pH (no unit), pH_temperature [C], density
 // [kg/L], TDS [mg/L], conductivity [µS/cm], pressure [atm|bar|kPa|psia|psig]
 // and comment. The long form, recognised by an analyte column, has columns
-// sample, analyte, value, unit and optionally qualifier ("<", ">", "ND") and
-// date, one row per sample and analyte; its rows are grouped into samples by
-// name and date in order of first appearance, and temperature, pH and the
-// other fields appear as analyte rows ("temperature","25","C").
+// sample, analyte, value, unit and optionally qualifier ("<", ">", "ND"),
+// date, role and system, one row per sample and analyte; its rows are
+// grouped into samples by name and date in order of first appearance, and
+// temperature, pH and the other fields appear as analyte rows
+// ("temperature","25","C"). A role or system may be given on any row of a
+// sample; rows of one sample that give different ones are an error of it.
 //
 // A blank cell is not measured. "<x" is below the detection limit x and
 // becomes x/2, 0 or x by opt.Detection (Analysis.BelowDetection says so);

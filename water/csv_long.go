@@ -22,11 +22,13 @@ const (
 	longUnit
 	longQualifier
 	longDate
+	longRole
+	longSystem
 	longWidth
 )
 
 // longTags are the gocsv keys of the long-form columns, in order.
-var longTags = [longWidth]string{"line", "bad", "sample", "analyte", "value", "unit", "qualifier", "date"}
+var longTags = [longWidth]string{"line", "bad", "sample", "analyte", "value", "unit", "qualifier", "date", "role", "system"}
 
 // longNames maps a long-form header, folded by fieldKey, to its column.
 var longNames = map[string]int{
@@ -36,6 +38,8 @@ var longNames = map[string]int{
 	"unit": longUnit, "units": longUnit,
 	"qualifier": longQualifier, "qual": longQualifier, "flag": longQualifier,
 	"date": longDate, "sampledate": longDate, "samplingdate": longDate,
+	"role": longRole, "samplerole": longRole,
+	"system": longSystem, "circuit": longSystem,
 }
 
 // longRow is one row of a long-form file as gocsv decodes it.
@@ -48,6 +52,8 @@ type longRow struct {
 	Unit      string    `csv:"unit"`
 	Qualifier string    `csv:"qualifier"`
 	Date      string    `csv:"date"`
+	Role      string    `csv:"role"`
+	System    string    `csv:"system"`
 }
 
 // isLongHeader reports whether header has an analyte column.
@@ -89,7 +95,7 @@ func (rd *reader) longColumns(header []string, line int) (longLayout, []error, e
 		var err error
 		switch {
 		case !ok:
-			err = errors.New("unknown column: the long form has sample, analyte, value, unit, qualifier, date")
+			err = errors.New("unknown column: the long form has sample, analyte, value, unit, qualifier, date, role, system")
 		case l.pos[k] >= 0:
 			err = fmt.Errorf("duplicate column: %s is already in column %d (%q)", longTags[k], l.pos[k]+1, l.header[k])
 		default:
@@ -203,6 +209,9 @@ type longSampleGroup struct {
 	seenComp map[string]int // component -> line
 	badLines []int
 	err      *InputError // the first error, by line and column
+	// roleLine and systemLine are the first rows that gave the sample's
+	// role and system (0: none yet).
+	roleLine, systemLine int
 }
 
 func (g *longSampleGroup) fail(e *InputError) {
@@ -318,6 +327,9 @@ func (lr *longReader) add(row longRow) {
 		g.badLines = append(g.badLines, row.Line)
 		return
 	}
+	if sample != "" && !lr.addTags(g, row) {
+		return
+	}
 	label := normalizeHeader(row.Analyte)
 	unit := normalizeHeader(row.Unit)
 	qual := strings.ToLower(normalizeHeader(row.Qualifier))
@@ -379,6 +391,41 @@ func (lr *longReader) add(row longRow) {
 	if err := g.b.set(c, v, rd.policy); err != nil {
 		g.fail(lr.cellError(row, longValue, row.Value.raw, fmt.Errorf("%s: %w", label, err)))
 	}
+}
+
+// addTags takes the role and system a row gives into its sample, as the
+// role and system columns of the wide form: a blank cell says nothing, and
+// any row of the sample may carry them. A value that differs from the one
+// an earlier row of the sample gave — a role by meaning ("tower" is
+// "recirculating"), a system by name without regard to case, as Pairs
+// matches systems — is an error at its line and column (the sample is not
+// computed; the other samples are), as is an unknown role.
+func (lr *longReader) addTags(g *longSampleGroup, row longRow) bool {
+	if text := cleanText(row.Role); text != "" {
+		r, err := ParseRole(text)
+		switch {
+		case err != nil:
+			g.fail(lr.cellError(row, longRole, row.Role, err))
+			return false
+		case g.roleLine == 0:
+			g.b.s.Role, g.roleLine = r, row.Line
+		case r != g.b.s.Role:
+			g.fail(lr.cellError(row, longRole, row.Role,
+				fmt.Errorf("role %s differs from %s given for this sample on line %d", r, g.b.s.Role, g.roleLine)))
+			return false
+		}
+	}
+	if text := cleanText(row.System); text != "" {
+		switch {
+		case g.systemLine == 0:
+			g.b.s.System, g.systemLine = text, row.Line
+		case !strings.EqualFold(text, g.b.s.System):
+			g.fail(lr.cellError(row, longSystem, row.System,
+				fmt.Errorf("system %q differs from %q given for this sample on line %d", clipText(text), clipText(g.b.s.System), g.systemLine)))
+			return false
+		}
+	}
+	return true
 }
 
 // addOther keeps a row of an analyte the equilibrium does not use in its

@@ -2,6 +2,7 @@ package water
 
 import (
 	"errors"
+	"os"
 	"strings"
 	"testing"
 )
@@ -44,5 +45,69 @@ func TestReadRoleSystem(t *testing.T) {
 		if r.Analysis.Role != w.role || r.Analysis.System != w.system {
 			t.Errorf("record %d: role %q system %q, want %q %q", i, r.Analysis.Role, r.Analysis.System, w.role, w.system)
 		}
+	}
+}
+
+// TestReadLongRoleSystem: a long-form file (invented Kestrel Fen waters,
+// testdata/lab/kestrel_fen_long_roles.csv) carries role and system per
+// sample as the wide form's columns do: given on any of the sample's rows,
+// in the plant's spellings, blank elsewhere. A role or system that
+// contradicts an earlier row of the same sample is an error naming file,
+// line and column; the other samples are computed, and the long-form
+// makeup and tower of Tower 2 pair as a wide file's would.
+func TestReadLongRoleSystem(t *testing.T) {
+	const path = "testdata/lab/kestrel_fen_long_roles.csv"
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	recs, probs, err := Read(path, f, ReadOptions{})
+	if err != nil || len(probs) > 0 {
+		t.Fatal(err, probs)
+	}
+	want := []struct {
+		name   string
+		role   Role
+		system string
+		// a bad sample: the line and header of its error and words in it
+		line, column int
+		header       string
+		words        string
+	}{
+		{name: "Well 3 makeup", role: RoleMakeup, system: "Tower 2"},
+		{name: "Tower 2 basin", role: RoleRecirculating, system: "Tower 2"},
+		{name: "Tower 3 basin", line: 11, column: 3, header: "role", words: "role blowdown differs from recirculating given for this sample on line 10"},
+		{name: "Tower 4 basin", line: 13, column: 4, header: "system", words: `system "Tower 5" differs from "Tower 4" given for this sample on line 12`},
+		{name: "Survey well", role: RoleUnset, system: ""},
+	}
+	if len(recs) != len(want) {
+		t.Fatalf("%d records, want %d", len(recs), len(want))
+	}
+	var good []Analysis
+	for i, w := range want {
+		r := recs[i]
+		if r.Name != w.name {
+			t.Fatalf("record %d is %q, want %q", i, r.Name, w.name)
+		}
+		if w.line != 0 {
+			var ie *InputError
+			if !errors.As(r.Err, &ie) || ie.File != path || ie.Line != w.line || ie.Column != w.column ||
+				ie.Header != w.header || !strings.Contains(ie.Error(), w.words) {
+				t.Errorf("%s: error %v, want %s:%d:%d, column %s: %s", w.name, r.Err, path, w.line, w.column, w.header, w.words)
+			}
+			continue
+		}
+		if r.Err != nil {
+			t.Fatalf("%s: %v", w.name, r.Err)
+		}
+		if r.Analysis.Role != w.role || r.Analysis.System != w.system {
+			t.Errorf("%s: role %q system %q, want %q %q", w.name, r.Analysis.Role, r.Analysis.System, w.role, w.system)
+		}
+		good = append(good, r.Analysis)
+	}
+	pairs, notes := Pairs(good)
+	if len(pairs) != 1 || good[pairs[0].Makeup].Name != "Well 3 makeup" || good[pairs[0].Tower].Name != "Tower 2 basin" || !pairs[0].SameDate {
+		t.Errorf("pairs %+v (notes %q), want Well 3 makeup with Tower 2 basin on the same date", pairs, notes)
 	}
 }
