@@ -97,6 +97,9 @@ func (s *solver) pitzerWarnings(t float64) []string {
 	if w := s.pitzerCoverageWarning(); w != "" {
 		out = append(out, w)
 	}
+	if w := s.caSO4HotBrineNote(t); w != "" {
+		out = append(out, w)
+	}
 	return out
 }
 
