@@ -74,9 +74,9 @@ type panelChart struct {
 
 // Layout of panel charts, px.
 const (
-	panelRowHeight = 185
+	panelRowHeight = 174
 	panelTitleGap  = 30
-	panelBottomGap = 48
+	panelBottomGap = 44
 )
 
 func panelColumns(n int) int {

@@ -178,29 +178,33 @@ func (b *builder) sweepCharts(id func(string) string, s *plan.Sample, sw *sweepS
 		caution = b.reagentCaution(b.reagent) // else said once, at the dose answer
 	}
 	specs := []struct {
-		pc             panelChart
-		title, caption string
-		caution        string
-		pts            []saturation.Point
+		pc                   panelChart
+		title, caption, tail string // the key of the lines goes between caption and tail
+		caution              string
+		pts                  []saturation.Point
 	}{
 		{temp, "Saturation index against temperature",
 			fmt.Sprintf("The water heated in a closed system from the sample temperature (%s °C) to %s °C, "+
-				"the tube-wall (skin) temperature of a heat exchanger. %s", num(sw.bulk, 1), num(sw.hot, 1), b.siKey()),
-			"", sw.temp},
-		{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced) + " " + b.siKey() + cycKey, "", sw.cycles},
+				"the tube-wall (skin) temperature of a heat exchanger.", num(sw.bulk, 1), num(sw.hot, 1)),
+			"", "", sw.temp},
+		{cyc, "Saturation index against cycles of concentration", b.cyclesCaption(s, sw, forced), cycKey, "", sw.cycles},
 		{dose, fmt.Sprintf("pH and saturation index against the dose of %s", b.reagent.Label),
-			fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. %s %s%s",
+			fmt.Sprintf("Dose of %s %% %s (%s) from 0 to %s mg/L of product%s. %s",
 				num(strength, 0), b.reagent.Label, b.reagent.Formula, num(sw.maxDose, 0), forced,
-				addsWords(b.reagent), b.siKey(), doseKey),
-			caution, sw.dose},
+				addsWords(b.reagent)),
+			doseKey, caution, sw.dose},
 	}
+	// The key of the lines is said once, under the first chart drawn; the
+	// later charts point back to it (shorter printed pages).
+	key := " " + b.siKey()
 	for _, sp := range specs {
-		view, note, ok := b.addPanelChart(sp.pc, sp.title, sp.caption, sp.caution, sp.pts)
+		view, note, ok := b.addPanelChart(sp.pc, sp.title, sp.caption+key+sp.tail, sp.caution, sp.pts)
 		if note != "" {
 			notes = append(notes, note)
 		}
 		if ok {
 			views = append(views, view)
+			key = " Lines and band as in the chart above."
 		}
 	}
 	if view, note, ok := b.windowView(id("window"), s); ok {

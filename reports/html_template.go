@@ -88,7 +88,7 @@ details pre { white-space: pre-wrap; font-size: 11.5px; background: #f6f7f9; pad
 footer { padding: 14px 40px 24px; border-top: 1px solid var(--rule); color: var(--muted); font-size: 13px; }
 a { color: var(--accent); }
 @media (max-width: 820px) { .facts { grid-template-columns: 1fr 1fr; } .cols { grid-template-columns: 1fr; } main, header.cover, footer { padding-left: 18px; padding-right: 18px; } }
-@page { size: A4; margin: 14mm 12mm; }
+@page { size: A4; margin: 10mm 11mm; }
 @media print {
   html, body { background: #fff; font-size: 10.5pt; }
   .sheet { margin: 0; max-width: none; box-shadow: none; }
@@ -101,13 +101,13 @@ a { color: var(--accent); }
   h2, h3, h4 { break-after: avoid; page-break-after: avoid; }
   a { color: inherit; text-decoration: none; }
   details > pre { display: none; }
-  .facts { grid-template-columns: 1fr 1fr; }
+  .facts { grid-template-columns: repeat(4, 1fr); }
   .chip { white-space: normal; }
   figure { max-width: 100%; overflow: hidden; margin: 8px 0; padding: 6px 8px; }
   figure h4 { font-size: 10pt; }
-  figure figcaption { font-size: 8.5pt; }
+  figure figcaption { font-size: 8.5pt; margin-top: 2px; }
   /* The analysis, data quality and notes of a sample: small print, two columns. */
-  .appendix { columns: 2; column-gap: 8mm; font-size: 8pt; }
+  .appendix { columns: 2; column-gap: 8mm; font-size: 8pt; line-height: 1.35; }
   .appendix table, .appendix p, .appendix ul { font-size: 8pt; }
   .appendix h3 { font-size: 10pt; margin-top: 6px; break-after: avoid; }
   .appendix .cols { display: block; }
@@ -126,7 +126,15 @@ a { color: var(--accent); }
   /* The charts scale to the page: the script gives each SVG a viewBox. */
   .chart { height: auto !important; }
   .chart > div { width: 100% !important; height: auto !important; }
-  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 58mm; }
+  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 46mm; }
+  /* The map of the operating window is one plot with its legend; the composition is two bars. */
+  .chart[data-chart$="-window"] svg { max-height: 44mm; }
+  .chart[data-chart$="-composition"] svg { max-height: 30mm; }
+  /* Short key–value tables: two pairs a line. */
+  table.pairs tbody { display: grid; grid-template-columns: minmax(0, 1fr) minmax(0, 1.7fr) max-content minmax(0, 1fr) minmax(0, 1.7fr) max-content; }
+  .appendix table.pairs tbody { grid-template-columns: minmax(0, 1.3fr) max-content minmax(0, 1fr) minmax(0, 1.3fr) max-content minmax(0, 1fr); }
+  table.pairs tr { display: contents; }
+  table.kv.pairs td, table.pairs tbody tr:nth-child(even) td { background: none; width: auto; }
 }
 </style>
 </head>
@@ -213,7 +221,7 @@ a { color: var(--accent); }
 {{- end}}
 {{- if .Dose}}
 <h4>Dose to target</h4>
-<table class="kv"><tbody>{{range .Dose}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+<table class="kv pairs"><tbody>{{range .Dose}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .Effects}}
 <p class="small">Saturation indices that rise with the dose (side effects):</p>
 <table><thead><tr><th>Mineral</th><th class="n">Before</th><th class="n">After</th><th>Risk band after</th></tr></thead><tbody>
@@ -225,7 +233,7 @@ a { color: var(--accent); }
 {{- end}}
 {{- if .Cycles}}
 <h4>Highest cycles of concentration</h4>
-<table class="kv"><tbody>{{range .Cycles}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+<table class="kv pairs"><tbody>{{range .Cycles}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .CycleNotes}}<ul class="small">{{range .CycleNotes}}<li>{{.}}</li>{{end}}</ul>{{end}}
 {{- end}}
 {{- range .Blends}}
@@ -271,7 +279,7 @@ a { color: var(--accent); }
 {{- end}}
 <h3>The analysis as entered and as used</h3>
 <div class="cols">
-<table class="kv"><tbody>{{range .Entered}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+<table class="kv pairs"><tbody>{{range .Entered}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 <div>
 <p class="muted small">Concentrations are read in the units of the file and converted to mol/kg of water with the density and the mass of water per litre shown; mg/L are given back as the ion (SO₄, NO₃, SiO₂, PO₄). Inorganic carbon is not measured: pH and alkalinity fix it.</p>
 {{- if .BelowDetection}}
@@ -293,7 +301,7 @@ a { color: var(--accent); }
 <table class="kv"><tbody>{{range .QualitySums}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .Equilibrium}}
 <h4>The equilibrium solved</h4>
-<table class="kv"><tbody>{{range .Equilibrium}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
+<table class="kv pairs"><tbody>{{range .Equilibrium}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- end}}
 {{- if .QualityFlags}}<ul class="small">{{range .QualityFlags}}<li>{{.}}</li>{{end}}</ul>{{end}}
 
