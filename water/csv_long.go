@@ -362,19 +362,8 @@ func (lr *longReader) add(row longRow) {
 		g.fail(lr.cellError(row, longAnalyte, row.Analyte, errNotAField))
 		return
 	}
-	if prev, dup := g.seen[c.key()]; dup {
-		g.fail(lr.cellError(row, longAnalyte, row.Analyte,
-			fmt.Errorf("%s is already reported for this sample on line %d", c.name(), prev)))
+	if !lr.firstReport(g, row, c) {
 		return
-	}
-	if prev, dup := g.seenComp[c.componentKey()]; dup && c.componentKey() != "" {
-		g.fail(lr.cellError(row, longAnalyte, row.Analyte,
-			fmt.Errorf("%s is already reported for this sample on line %d", c.componentKey(), prev)))
-		return
-	}
-	g.seen[c.key()] = row.Line
-	if k := c.componentKey(); k != "" {
-		g.seenComp[k] = row.Line
 	}
 	v, err := applyQualifier(row.Value, qual)
 	if err != nil {
@@ -391,6 +380,27 @@ func (lr *longReader) add(row longRow) {
 	if err := g.b.set(c, v, rd.policy); err != nil {
 		g.fail(lr.cellError(row, longValue, row.Value.raw, fmt.Errorf("%s: %w", label, err)))
 	}
+}
+
+// firstReport records that row reports column c for its sample, or fails
+// the sample when an earlier row reported c, or the same component in
+// another form.
+func (lr *longReader) firstReport(g *longSampleGroup, row longRow, c headerColumn) bool {
+	if prev, dup := g.seen[c.key()]; dup {
+		g.fail(lr.cellError(row, longAnalyte, row.Analyte,
+			fmt.Errorf("%s is already reported for this sample on line %d", c.name(), prev)))
+		return false
+	}
+	if prev, dup := g.seenComp[c.componentKey()]; dup && c.componentKey() != "" {
+		g.fail(lr.cellError(row, longAnalyte, row.Analyte,
+			fmt.Errorf("%s is already reported for this sample on line %d", c.componentKey(), prev)))
+		return false
+	}
+	g.seen[c.key()] = row.Line
+	if k := c.componentKey(); k != "" {
+		g.seenComp[k] = row.Line
+	}
+	return true
 }
 
 // addTags takes the role and system a row gives into its sample, as the
