@@ -207,6 +207,10 @@ type Blend struct {
 	Partner  string  // name of the other water
 	Fraction float64 // share of the sample, 0–1 by volume
 	Result   *saturation.Result
+	// Judged is the blend judged against the settings' limit profile at
+	// the bulk and at the skin, with the safe share of the sample
+	// (saturation.JudgeBlend); nil when the step "blend limits" failed.
+	Judged *saturation.BlendResult
 }
 
 // A step computes one part of a plan into p and returns its error; an
@@ -223,6 +227,7 @@ var steps = []step{
 	{"highest-cycles search", cyclesStep},
 	{"uncertainty", uncertaintyStep},
 	{"blend", blendStep},
+	{"blend limits", blendLimitsStep},
 	{"temperature sweep", temperatureStep},
 	{"cycles sweep", cyclesSweepStep},
 	{"dose sweep", doseSweepStep},
@@ -293,6 +298,21 @@ func blendStep(p *Sample, s Settings) error {
 		return fmt.Errorf("with %s at %g %%: %w", s.Partner.Name, 100*s.BlendFraction, err)
 	}
 	p.Blends = append(p.Blends, b)
+	return nil
+}
+
+// blendLimitsStep judges each blend against the limit profile at the bulk
+// and at the skin temperature (Speciation.Skin), the stricter governing,
+// and searches the safe share of the sample.
+func blendLimitsStep(p *Sample, s Settings) error {
+	for i := range p.Blends {
+		b := &p.Blends[i]
+		j, err := saturation.JudgeBlend(p.Input, *s.Partner, b.Fraction, s.LimitProfile(), s.Speciation)
+		if err != nil {
+			return fmt.Errorf("with %s at %g %%: %w", b.Partner, 100*b.Fraction, err)
+		}
+		b.Judged = j
+	}
 	return nil
 }
 

@@ -119,12 +119,20 @@ func MarginOf(m *saturation.MarginResult, err error) *MarginJSON {
 		CyclesMargin:  optional(m.CyclesMargin, func(x float64) float64 { return dec(x, 2) }),
 		JudgementJSON: judgementJSON(m.Further.Judged, "cycles")}
 	j.Exceeded = append(j.Exceeded, m.Further.Exceeded...)
-	for _, l := range m.Limits {
-		j.Limits = append(j.Limits, LimitMarginJSON{Quantity: l.Quantity, Max: l.Max, Value: sig(l.Value, 4),
+	j.Limits = append(j.Limits, limitMarginsJSON(m.Limits)...)
+	return j
+}
+
+// limitMarginsJSON is the JSON of the limits of a margin, each at the bulk
+// and at the skin.
+func limitMarginsJSON(ls []saturation.LimitMargin) []LimitMarginJSON {
+	out := []LimitMarginJSON{}
+	for _, l := range ls {
+		out = append(out, LimitMarginJSON{Quantity: l.Quantity, Max: l.Max, Value: sig(l.Value, 4),
 			SkinValue: optional(l.SkinValue, func(x float64) float64 { return sig(x, 4) }),
 			Margin:    sig(l.Margin, 4), GoverningTemperatureC: dec(l.Governing, 2)})
 	}
-	return j
+	return out
 }
 
 // balanceJSON is the JSON object of one pair.
@@ -258,7 +266,13 @@ func writeMarginText(b *strings.Builder, m *saturation.MarginResult, err error) 
 		fmt.Fprintf(b, "  Margin under the %s profile: the water can be concentrated %.2f times further, when %s reaches its limit (at %s).\n",
 			m.Profile.Name, f.MaxCycles, quantityLabel(f.Limiting), clientText(where))
 	}
-	for _, l := range m.Limits {
+	writeLimitMargins(b, m.Limits)
+}
+
+// writeLimitMargins writes a line per limit: the worse of the bulk and
+// skin values, the limit, the margin and the temperature it was taken at.
+func writeLimitMargins(b *strings.Builder, ls []saturation.LimitMargin) {
+	for _, l := range ls {
 		fmt.Fprintf(b, "    %-40s  %10.4g  limit %-8g  margin %+.3g (at %.3g °C)\n", quantityLabel(l.Quantity), math.Max(l.Value, nanTo(l.SkinValue, l.Value)), l.Max, l.Margin, l.Governing)
 	}
 }

@@ -55,7 +55,8 @@ func checkClientText(t *testing.T, name, text string) {
 }
 
 // TestClientText writes the demo report with every part a report can have
-// (dose to a target, highest cycles, a blend, a failed blend) under each
+// (dose to a target, highest cycles, a blend with its safe share, all judged
+// at a 60 °C tube wall too, a failed blend) under each
 // profile, and checks its visible text and chart labels for the tool's own
 // words.
 func TestClientText(t *testing.T) {
@@ -75,7 +76,8 @@ func TestClientText(t *testing.T) {
 		}
 		rule, _ := saturation.ParseCarbonateRule("ph=7.8")
 		for _, settings := range []plan.Settings{
-			{Target: &target, Profile: &profile, CyclesRule: &rule, Partner: &as[0].Input, BlendFraction: 0.4},
+			{Target: &target, Profile: &profile, CyclesRule: &rule, Partner: &as[0].Input, BlendFraction: 0.4,
+				Speciation: saturation.Options{Skin: 60}},
 			{Reagent: caustic, Target: &target, Profile: &profile},
 			{Target: &target, Profile: &profile, Uncertainty: uncertainty.Settings{Draws: 30, Seed: 1}},
 		} {

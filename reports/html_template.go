@@ -238,6 +238,8 @@ a { color: var(--accent); }
 {{- end}}
 {{- range .Blends}}
 <h4>Blend: {{.Title}}</h4>
+{{- if .Verdict}}<p>{{.Verdict}}</p>{{end}}
+{{- if .Share}}<p>{{.Share}}</p>{{end}}
 <table><thead><tr><th>Mineral</th><th>Formula</th><th class="n">SI</th><th>Risk band</th></tr></thead><tbody>
 {{- range .Minerals}}<tr><td>{{.Name}}</td><td>{{.Formula}}</td><td class="n">{{.SI}}</td><td><span class="chip {{.Band.Class}}">{{.Band.Text}}</span></td></tr>{{end}}
 </tbody></table>

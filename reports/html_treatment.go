@@ -4,6 +4,7 @@ import (
 	"cmp"
 	"errors"
 	"fmt"
+	"math"
 	"slices"
 	"strings"
 
@@ -37,6 +38,10 @@ type scaleRow struct{ Mineral, SI, Alone, Together, AloneKg, TogetherKg string }
 type blendView struct {
 	Title    string
 	Minerals []mineralRow
+	// Verdict says whether the blend holds the limits and at which
+	// temperature it is judged stricter; Share how much of this water a
+	// blend can take. Empty when the blend was not judged.
+	Verdict, Share string
 }
 
 // indexRows lays out the classic indices of an assessment.
@@ -108,7 +113,7 @@ func quantityLabel(q string) string {
 // none.
 func (b *builder) treatment(s *plan.Sample) *treatmentView {
 	tv := &treatmentView{}
-	for _, part := range []string{"dose search", "highest-cycles search", "blend"} {
+	for _, part := range []string{"dose search", "highest-cycles search", "blend", "blend limits"} {
 		if err := s.PartErr(part); err != nil {
 			tv.Notes = append(tv.Notes, searchFailure(part, err))
 		}
@@ -221,7 +226,61 @@ func (b *builder) blendView(bl plan.Blend) blendView {
 				SI: signed(m.SI, 2), Band: b.band(m.Name, m.SI)})
 		}
 	}
+	if j := bl.Judged; j != nil {
+		bv.Verdict, bv.Share = blendVerdict(j), blendShare(j, bl.Partner)
+	}
 	return bv
+}
+
+// blendVerdict says in words whether a blend holds every limit of its
+// profile, judged at its own temperature and at the tube wall, and which
+// of the two is the stricter.
+func blendVerdict(j *saturation.BlendResult) string {
+	p := j.Point
+	where := fmt.Sprintf("at the water's own temperature (%s °C)", num(p.Result.Temperature, 0))
+	if p.Skin != nil && p.Governing == p.Skin.Temperature {
+		where = fmt.Sprintf("at the %s °C tube wall", num(p.Skin.Temperature, 0))
+	}
+	judged := "Judged under " + profileWords(j.Profile.Name)
+	if p.Skin != nil {
+		judged += fmt.Sprintf(", at the water's own temperature and at the %s °C tube wall", num(p.Skin.Temperature, 0))
+	}
+	if note := saturation.FitNote(nil, p.Limiting, p.Governing); note != "" && !p.Within() {
+		where += " — " + note
+	}
+	switch {
+	case math.IsInf(p.Excess, -1):
+		return judged + ": none of the limits applies to this blend."
+	case p.Within():
+		return judged + ": this blend stays within every limit."
+	}
+	return fmt.Sprintf("%s: this blend is past the limit for %s %s.", judged, quantityLabel(p.Limiting), where)
+}
+
+// blendShare says how much of this water (the first of the blend) a blend
+// with partner can take, and which temperature sets it.
+func blendShare(j *saturation.BlendResult, partner string) string {
+	s := j.Share
+	switch {
+	case math.IsNaN(s.Fraction):
+		return fmt.Sprintf("Neither this water nor %s alone stays within the limits, so no safe share of the two was sought.", partner)
+	case s.Limiting == "":
+		return fmt.Sprintf("Every share of this water and %s stays within the limits.", partner)
+	}
+	at := ""
+	if s.Judged.SkinGoverns() {
+		at = fmt.Sprintf(" at the %s °C tube wall (judged at the water's own temperature alone it would be %s %%)",
+			num(s.Judged.Skin, 0), num(100*s.Judged.AtBulk, 0))
+	}
+	if note := saturation.FitNote(nil, s.Limiting, s.Judged.Governing); note != "" {
+		at += " — " + note
+	}
+	if s.AtLeast {
+		return fmt.Sprintf("The blend needs at least %s %% of this water: with less, %s passes its limit%s.",
+			num(100*s.Fraction, 0), quantityLabel(s.Limiting), at)
+	}
+	return fmt.Sprintf("The blend can take at most %s %% of this water: with more, %s passes its limit%s.",
+		num(100*s.Fraction, 0), quantityLabel(s.Limiting), at)
 }
 
 // searchFailure words a treatment search that could not be computed.
@@ -235,6 +294,8 @@ func searchFailure(part string, err error) string {
 		return "The dose to the target could not be computed: " + sentence(err.Error())
 	case "highest-cycles search":
 		return "The highest cycles of concentration could not be computed: " + sentence(err.Error())
+	case "blend limits":
+		return "The blend could not be judged against the limits: " + sentence(err.Error())
 	}
 	return "The blend could not be computed: " + sentence(err.Error())
 }

@@ -28,10 +28,15 @@ type JudgementJSON struct {
 	MaxCyclesSkin *float64 `json:"max_cycles_skin,omitempty"`
 	DoseBulk      *float64 `json:"dose_bulk_mg_per_l,omitempty"`
 	DoseSkin      *float64 `json:"dose_skin_mg_per_l,omitempty"`
+	// SafeFractionBulk and SafeFractionSkin are the safe share of the
+	// first water of a blend judged at each temperature alone.
+	SafeFractionBulk *float64 `json:"safe_fraction_bulk,omitempty"`
+	SafeFractionSkin *float64 `json:"safe_fraction_skin,omitempty"`
 }
 
-// judgementJSON is the JSON of a judgement of a decision of kind "cycles"
-// or "dose".
+// judgementJSON is the JSON of a judgement of a decision of kind "cycles",
+// "dose" or "blend" (the safe share of a blend); any other kind gives the
+// temperatures only.
 func judgementJSON(j saturation.Judgement, kind string) JudgementJSON {
 	out := JudgementJSON{GoverningTemperatureC: dec(j.Governing, 2), Governing: "bulk", BulkTemperatureC: dec(j.Bulk, 2)}
 	if j.SkinGoverns() {
@@ -47,6 +52,8 @@ func judgementJSON(j saturation.Judgement, kind string) JudgementJSON {
 		out.MaxCyclesBulk, out.MaxCyclesSkin = bulk, skin
 	case "dose":
 		out.DoseBulk, out.DoseSkin = bulk, skin
+	case "blend":
+		out.SafeFractionBulk, out.SafeFractionSkin = bulk, skin
 	}
 	return out
 }

@@ -108,15 +108,25 @@ func (sp *Speciator) assess(as *Assessment, a water.Analysis, opt Options) {
 // and mixes them by volume fractions (water.Blend): the blend is computed
 // from totals, to be re-speciated, never by averaging indices.
 func BlendWaters(waters []water.Analysis, fractions []float64, opt Options) (water.Analysis, error) {
+	fixed, err := fixAll(waters, opt)
+	if err != nil {
+		return water.Analysis{}, err
+	}
+	return water.Blend(fixed, fractions)
+}
+
+// fixAll fixes the carbonate system of each water (see Speciator.Fix),
+// each cold, and returns the fixed waters in order.
+func fixAll(waters []water.Analysis, opt Options) ([]water.Analysis, error) {
 	fixed := make([]water.Analysis, len(waters))
 	for i, w := range waters {
 		f, _, err := NewSpeciator(opt.Model).Fix(w, opt)
 		if err != nil {
-			return water.Analysis{}, err
+			return nil, err
 		}
 		fixed[i] = f
 	}
-	return water.Blend(fixed, fractions)
+	return fixed, nil
 }
 
 func isNaNIndices(ix Indices) bool {

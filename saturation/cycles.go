@@ -338,31 +338,41 @@ func (cp *cyclesProblem) eval(n float64) CyclePoint {
 }
 
 // grid evaluates the points 1, 1+step, ... up to maxN (maxN always
-// included). With the Auto activity model, when the points would mix
-// models, one model is pinned for the whole search (see Sweep) and the
-// points are evaluated again with it.
+// included), with one activity model over the whole search (see
+// gridPoints).
 func (cp *cyclesProblem) grid(maxN, step float64) []CyclePoint {
-	var pts []CyclePoint
+	var values []float64
 	for k := 0; ; k++ {
 		n := 1 + float64(k)*step
 		if n > maxN+1e-9 {
 			break
 		}
-		pts = append(pts, cp.eval(n))
+		values = append(values, n)
 	}
-	if last := pts[len(pts)-1].Cycles; last < maxN-1e-9 {
-		pts = append(pts, cp.eval(maxN))
+	if last := values[len(values)-1]; last < maxN-1e-9 {
+		values = append(values, maxN)
 	}
-	// One activity model over the whole search (see Sweep).
-	if cp.opt.Activity == Auto {
+	return gridPoints(values, cp.eval, &cp.opt)
+}
+
+// gridPoints evaluates eval at each value, in order. With the Auto
+// activity model, when the points would mix models, one model is pinned
+// for the whole search (see Sweep) in *opt — the options eval reads — and
+// the points are evaluated again with it.
+func gridPoints(values []float64, eval func(float64) CyclePoint, opt *Options) []CyclePoint {
+	pts := make([]CyclePoint, 0, len(values))
+	for _, v := range values {
+		pts = append(pts, eval(v))
+	}
+	if opt.Activity == Auto {
 		var ps []Point
 		for _, p := range pts {
 			ps = append(ps, Point{Result: p.Result})
 		}
-		if m, mixed := uniformModel(ps, cp.opt); mixed {
-			cp.opt.Activity = m
+		if m, mixed := uniformModel(ps, *opt); mixed {
+			opt.Activity = m
 			for k := range pts {
-				pts[k] = cp.eval(pts[k].Cycles)
+				pts[k] = eval(pts[k].Cycles)
 			}
 		}
 	}
@@ -370,18 +380,25 @@ func (cp *cyclesProblem) grid(maxN, step float64) []CyclePoint {
 }
 
 // judge finds the highest cycles under profile at the bulk and, with a
-// skin temperature, at the skin, and returns the lower (on a tie, the one
-// with more limits already exceeded). It sets the cycles of res.Judged
-// (and Governing when the skin governs).
+// skin temperature, at the skin (see judgeAtBoth).
 func (cp *cyclesProblem) judge(res *CyclesResult, profile LimitProfile) cyclesAnswer {
-	bulk := judgeCycles(res.Points, profile, cp.eval, func(p CyclePoint) (*Result, Indices) { return p.Result, p.Indices })
+	return judgeAtBoth(res.Points, profile, cp.eval, cp.skin, &res.Judged)
+}
+
+// judgeAtBoth walks points (see judgeCycles) judged at the bulk and, with
+// a skin temperature (skin not NaN), at the skin, and returns the lower
+// answer (on a tie, the one with more limits already exceeded). It sets
+// the answers of j at each temperature, and Governing to skin when the
+// skin governs.
+func judgeAtBoth(points []CyclePoint, profile LimitProfile, eval func(float64) CyclePoint, skin float64, j *Judgement) cyclesAnswer {
+	bulk := judgeCycles(points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Result, p.Indices })
 	pick := bulk
-	res.Judged.AtBulk = bulk.max
-	if !math.IsNaN(cp.skin) {
-		hot := judgeCycles(res.Points, profile, cp.eval, func(p CyclePoint) (*Result, Indices) { return p.Skin, p.SkinIndices })
-		res.Judged.AtSkin = hot.max
+	j.AtBulk = bulk.max
+	if !math.IsNaN(skin) {
+		hot := judgeCycles(points, profile, eval, func(p CyclePoint) (*Result, Indices) { return p.Skin, p.SkinIndices })
+		j.AtSkin = hot.max
 		if hot.max < bulk.max || (hot.max == bulk.max && len(hot.exceeded) > len(bulk.exceeded)) {
-			pick, res.Judged.Governing = hot, cp.skin
+			pick, j.Governing = hot, skin
 		}
 	}
 	return pick
@@ -417,7 +434,8 @@ type cyclesAnswer struct {
 
 // judgeCycles walks the points (their result at one temperature, given by
 // at) to the first that passes a limit, and refines the crossing by
-// Brent's method with eval.
+// Brent's method with eval. When the first point already passes a limit,
+// the answer is that point (1 cycle) with the limits it exceeds.
 func judgeCycles(points []CyclePoint, profile LimitProfile, eval func(float64) CyclePoint, at func(CyclePoint) (*Result, Indices)) cyclesAnswer {
 	excess := func(p CyclePoint) (float64, string, []string) {
 		r, ix := at(p)
@@ -425,7 +443,7 @@ func judgeCycles(points []CyclePoint, profile LimitProfile, eval func(float64) C
 	}
 	ans := cyclesAnswer{max: points[len(points)-1].Cycles}
 	if w, _, over := excess(points[0]); w > 0 {
-		ans.max, ans.exceeded = 1, over
+		ans.max, ans.exceeded = points[0].Cycles, over
 		return ans
 	}
 	for k := 1; k < len(points); k++ {

@@ -61,7 +61,25 @@ func Margin(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN, cy
 			return nil, err
 		}
 	}
-	res := &MarginResult{Profile: profile, Cycles: cycles, MaxCycles: math.NaN(), CyclesMargin: math.NaN()}
+	res := &MarginResult{Profile: profile, Cycles: cycles, MaxCycles: math.NaN(), CyclesMargin: math.NaN(),
+		Limits: limitMargins(profile, r, ix, hot, hix, skin)}
+	if res.Further, err = MaxCycles(a, profile, rule, maxN, 0, opt); err != nil {
+		return nil, err
+	}
+	if cycles > 0 {
+		res.MaxCycles = cycles * res.Further.MaxCycles
+		res.CyclesMargin = res.MaxCycles - cycles
+	}
+	return res, nil
+}
+
+// limitMargins measures each limit of profile in r (at the bulk, with its
+// indices ix) and, when hot is not nil, in hot (the water heated to skin
+// °C, with its indices hix); the margin of each is taken at the worse of
+// the two. Quantities the water lacks are left out; the rest keep profile
+// order.
+func limitMargins(profile LimitProfile, r *Result, ix Indices, hot *Result, hix Indices, skin float64) []LimitMargin {
+	var out []LimitMargin
 	for _, l := range profile.Limits {
 		v, ok := l.Value(r, ix)
 		if !ok {
@@ -78,14 +96,7 @@ func Margin(a water.Analysis, profile LimitProfile, rule CarbonateRule, maxN, cy
 			}
 		}
 		m.Margin = l.Max - worst
-		res.Limits = append(res.Limits, m)
+		out = append(out, m)
 	}
-	if res.Further, err = MaxCycles(a, profile, rule, maxN, 0, opt); err != nil {
-		return nil, err
-	}
-	if cycles > 0 {
-		res.MaxCycles = cycles * res.Further.MaxCycles
-		res.CyclesMargin = res.MaxCycles - cycles
-	}
-	return res, nil
+	return out
 }

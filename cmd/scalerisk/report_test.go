@@ -191,7 +191,9 @@ func TestReportHelp(t *testing.T) {
 }
 
 // TestReportBlend: --blend-with adds a blend table to each sample's
-// treatment part, computed from totals.
+// treatment part, computed from totals, with the blend judged at the
+// water's own temperature and at the 60 °C tube wall (the default skin)
+// and the safe share of the sample in words.
 func TestReportBlend(t *testing.T) {
 	out := filepath.Join(t.TempDir(), "blend.html")
 	mustRun(t, 0, "", "report", "--demo", "--blend-with", demoCSV, "--blend-fraction", "0.7", "-o", out)
@@ -201,6 +203,15 @@ func TestReportBlend(t *testing.T) {
 	}
 	if n := strings.Count(string(b), "Blend: 70 % of this water with 30 % of Kestrel Fen makeup well 2"); n != len(demoSamples) {
 		t.Errorf("%d blend tables, want one per sample (%d)", n, len(demoSamples))
+	}
+	judged := "at the water&#39;s own temperature and at the 60 °C tube wall"
+	if n := strings.Count(string(b), judged); n != len(demoSamples) {
+		t.Errorf("%d blends judged %q, want one per sample (%d)", n, judged, len(demoSamples))
+	}
+	shares := strings.Count(string(b), "The blend can take at most") + strings.Count(string(b), "The blend needs at least") +
+		strings.Count(string(b), "stays within the limits.") + strings.Count(string(b), "no safe share of the two was sought")
+	if shares != len(demoSamples) {
+		t.Errorf("%d safe-share sentences, want one per sample (%d)", shares, len(demoSamples))
 	}
 	mustRun(t, 2, "", "report", "--demo", "--blend-with", demoCSV, "--blend-fraction", "2", "-o", out)
 }
