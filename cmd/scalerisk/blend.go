@@ -103,21 +103,33 @@ func (o *blendOptions) waters(args []string, stdin io.Reader, ropt water.ReadOpt
 	inputs := o.common.inputs(args)
 	names := append(o.samples, "", "")[:2]
 	choices := []sampleChoice{{name: names[0], nth: 1}, {name: names[1], nth: 1}}
+	var ws []water.Analysis
 	switch len(inputs) {
 	case 1:
-		inputs = append(inputs, inputs[0])
-		choices[1].nth = 2 // the second sample of the same file when not named
+		// Both waters from one input, read once (standard input can be
+		// read only once): the second sample when the second is not named.
+		choices[1].nth = 2
+		records, probs, err := readInput(inputs[0], stdin, ropt)
+		if err != nil {
+			return nil, badInput(err)
+		}
+		for _, choice := range choices {
+			w, err := pickFrom(inputs[0], records, probs, choice, opt)
+			if err != nil {
+				return nil, err
+			}
+			ws = append(ws, w)
+		}
 	case 2:
+		for i, in := range inputs {
+			w, err := pickSample(in, choices[i], stdin, ropt, opt)
+			if err != nil {
+				return nil, err
+			}
+			ws = append(ws, w)
+		}
 	default:
 		return nil, badInput(fmt.Errorf("blend takes two waters: two files, or one file (or --demo) with --sample twice; got %d inputs", len(inputs)))
-	}
-	var ws []water.Analysis
-	for i, in := range inputs {
-		w, err := pickSample(in, choices[i], stdin, ropt, opt)
-		if err != nil {
-			return nil, err
-		}
-		ws = append(ws, w)
 	}
 	return ws, nil
 }

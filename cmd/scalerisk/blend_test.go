@@ -61,6 +61,12 @@ func TestBlendCommandSkin(t *testing.T) {
 	if n := len(hs["points"].([]any)); n != 21 {
 		t.Errorf("%d points of the search, want 21 (0 to 1 by 0.05)", n)
 	}
+	// Both waters from standard input, read once (it once gave "-: empty
+	// file", exit 2, reading it again for the second water).
+	piped := decodeSamples(t, mustRun(t, 0, kestrelBlendCSV, "blend", "-", "--fraction", "0.3", "--limits", "no-inhibitor", "--format", "json").stdout)[0]
+	if ps := piped["safe_fraction"].(map[string]any); ps["fraction"] != hs["fraction"] || piped["name"] != hot["name"] {
+		t.Errorf("from standard input: %v, safe share %v; from the file: %v, %v", piped["name"], ps["fraction"], hot["name"], hs["fraction"])
+	}
 	text := mustRun(t, 0, "", "blend", in, "--fraction", "0.3", "--limits", "no-inhibitor").stdout
 	for _, want := range []string{"past the limit for calcite (SI), at the 60 °C skin", "Safe share: at most", "Governed by the 60 °C skin"} {
 		if !strings.Contains(text, want) {

@@ -491,6 +491,12 @@ func pickSample(in input, choice sampleChoice, stdin io.Reader, ropt water.ReadO
 	if err != nil {
 		return water.Analysis{}, badInput(err)
 	}
+	return pickFrom(in, records, probs, choice, opt)
+}
+
+// pickFrom returns the good sample that choice picks among the records
+// (and file problems) read from input in.
+func pickFrom(in input, records []water.Record, probs []error, choice sampleChoice, opt saturation.Options) (water.Analysis, error) {
 	for _, p := range probs {
 		if !errors.Is(p, water.ErrNotUsed) {
 			return water.Analysis{}, badInput(p)
