@@ -53,7 +53,7 @@ func (c *commonFlags) register(cmd *cobra.Command) {
 // shares (cycles, dose, report, balance, membrane).
 func (c *commonFlags) registerSkin(cmd *cobra.Command, def float64) {
 	cmd.Flags().Float64Var(&c.skin, "skin-temperature", def,
-		fmt.Sprintf("hottest surface the water meets (a heat-exchanger tube wall), °C: each decision is judged at the bulk and at this temperature (bulk pH held) and the stricter governs; 0 judges at the bulk only (default %g)", def))
+		"hottest surface the water meets (a heat-exchanger tube wall), °C: each decision is judged at the bulk and at this temperature (bulk pH held) and the stricter governs; 0 judges at the bulk only")
 }
 
 // setup turns the shared flags into a format, speciation options and read
