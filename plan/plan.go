@@ -67,6 +67,13 @@ type Settings struct {
 	// Uncertainty configures the Monte Carlo draws of every sample's
 	// analysis (see package uncertainty); Draws 0 computes none.
 	Uncertainty uncertainty.Settings
+	// Detailed, when set, tells whether a sample may still get a full
+	// section of the report; the operating window, which only a section
+	// shows, is not computed for a sample it rejects (Window stays nil,
+	// with no error). It is called after the sample's Ranking is set, from
+	// many workers at once, and must be safe for that; a sample it rejects
+	// must never get a section. Nil computes every window.
+	Detailed func(p *Sample) bool
 }
 
 // Check reports the first setting out of range: SkinTemperature outside

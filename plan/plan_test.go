@@ -88,3 +88,31 @@ func ExampleCompute() {
 	// charted: [calcite gypsum silica_amorphous barite celestite fluorite tricalcium_phosphate]
 	// errors: 0
 }
+
+// TestDetailedSkipsWindow: a sample that Settings.Detailed rejects gets no
+// operating window and no error for it; its other parts are computed, and
+// one it accepts gets its window.
+func TestDetailedSkipsWindow(t *testing.T) {
+	a := demo(t)[0]
+	asked := 0
+	skip := plan.Compute(a, plan.Settings{Detailed: func(p *plan.Sample) bool {
+		asked++
+		if len(p.Ranking) == 0 {
+			t.Error("Detailed was called before the ranking was set")
+		}
+		return false
+	}})
+	if asked != 1 {
+		t.Errorf("Detailed was called %d times, want once", asked)
+	}
+	if skip.Window != nil || skip.PartErr("operating window") != nil {
+		t.Errorf("a rejected sample has window %v, error %v; want neither", skip.Window, skip.PartErr("operating window"))
+	}
+	if skip.Temperature.Computed() == 0 || len(skip.Minerals) == 0 {
+		t.Error("skipping the window stopped the other parts")
+	}
+	keep := plan.Compute(a, plan.Settings{Detailed: func(*plan.Sample) bool { return true }})
+	if keep.Window == nil || len(keep.Window.Margin) != plan.WindowSide*plan.WindowSide {
+		t.Errorf("an accepted sample has window %v, want a %d×%d grid", keep.Window, plan.WindowSide, plan.WindowSide)
+	}
+}

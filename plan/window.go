@@ -45,6 +45,9 @@ type Curve struct {
 const WindowSide = 12
 
 func windowStep(p *Sample, s Settings) error {
+	if s.Detailed != nil && !s.Detailed(p) {
+		return nil // a summary row only: no section shows the window
+	}
 	bulk := p.Result.Temperature
 	w := &Window{Temperatures: saturation.Range(bulk, s.HotEnd(bulk), WindowSide),
 		Cycles: saturation.Range(1, s.Cycles(), WindowSide), Present: [2]float64{bulk, 1}}

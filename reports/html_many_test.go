@@ -79,3 +79,53 @@ func TestHTMLNoDose(t *testing.T) {
 		t.Error("the page says the dose was not reached")
 	}
 }
+
+// TestMayDetailSameReport: plans computed with HTMLWriter.MayDetail as
+// plan.Settings.Detailed (no operating window for a sample that can no
+// longer get a section) give the same page, byte for byte, as plans with
+// every window, and some windows were skipped.
+func TestMayDetailSameReport(t *testing.T) {
+	as := demoAssessments(t)
+	page := func(lazy bool) (string, int) {
+		hw, err := reports.NewHTMLWriter(reports.Report{Options: reports.HTMLOptions{Detail: 2}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		var s plan.Settings
+		if lazy {
+			s.Detailed = hw.MayDetail
+		}
+		skipped := 0
+		for i := range 4 * len(as) {
+			a := as[i%len(as)]
+			a.Name = fmt.Sprintf("invented water %02d", i+1)
+			p := plan.Compute(a, s)
+			if p.Window == nil {
+				skipped++
+			}
+			if err := hw.Add(p); err != nil {
+				t.Fatal(err)
+			}
+		}
+		var buf bytes.Buffer
+		if err := hw.Finish(&buf); err != nil {
+			t.Fatal(err)
+		}
+		return buf.String(), skipped
+	}
+	all, none := page(false)
+	lazy, skipped := page(true)
+	if none != 0 {
+		t.Fatalf("%d windows missing without MayDetail", none)
+	}
+	if skipped == 0 {
+		t.Error("MayDetail skipped no window (every later sample has the risk of an earlier one)")
+	}
+	if lazy != all {
+		t.Error("the page differs when the summary-only samples have no operating window")
+	}
+	if n := strings.Count(lazy, `-window" data-chart=`); n != 2 {
+		t.Errorf("%d operating windows drawn, want 2 (one per section)", n)
+	}
+	t.Logf("%d of %d windows skipped", skipped, 4*len(as))
+}

@@ -11,6 +11,7 @@ import (
 	"maps"
 	"slices"
 	"strings"
+	"sync"
 
 	"scalerisk/plan"
 	"scalerisk/saturation"
@@ -36,6 +37,12 @@ type HTMLWriter struct {
 	// listInputs collects head.Inputs from the samples added.
 	listInputs bool
 	closed     bool
+	// mu guards full and cut, which MayDetail reads from other
+	// goroutines: once Detail sections are kept, cut is the risk of the
+	// last of them, and it only rises.
+	mu   sync.Mutex
+	full bool
+	cut  riskKey
 }
 
 // summaryEntry is the summary row of a computed sample and its rank.
@@ -124,7 +131,32 @@ func (hw *HTMLWriter) Add(p *plan.Sample) error {
 	if n > 0 && len(hw.kept) > n {
 		hw.kept = hw.kept[:n]
 	}
+	if n > 0 && len(hw.kept) == n {
+		hw.mu.Lock()
+		hw.full, hw.cut = true, hw.kept[n-1].risk
+		hw.mu.Unlock()
+	}
 	return nil
+}
+
+// MayDetail reports whether the plan p, not yet added, may still get a
+// full section: false when no section is shown (Detail < 0) or when Detail
+// sections are kept and p's risk is not above the last of them (of equal
+// risk the earlier sample wins, and p comes later). The kept risks only
+// rise, so a plan rejected once stays rejected. A plan without a result
+// may always get one. MayDetail is safe to call from many goroutines while
+// Add runs; it is plan.Settings.Detailed for the plans of this report.
+func (hw *HTMLWriter) MayDetail(p *plan.Sample) bool {
+	n := hw.budget()
+	switch {
+	case p.Result == nil || n < 0:
+		return true
+	case n == 0:
+		return false
+	}
+	hw.mu.Lock()
+	defer hw.mu.Unlock()
+	return !hw.full || riskOf(p).compare(hw.cut) > 0
 }
 
 // Finish writes the page to w; no sample can be added after it.

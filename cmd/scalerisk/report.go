@@ -129,6 +129,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 	if err != nil {
 		return badInput(err)
 	}
+	settings.Detailed = hw.MayDetail // no operating window for a summary row
 	// Each worker assesses a sample and computes its plan (sweeps,
 	// searches, blend); the writer lays the plans out in input order.
 	samples := 0
