@@ -300,6 +300,12 @@ a { color: var(--accent); }
 <thead><tr><th>Check</th><th>Applies</th><th class="n">Value</th><th class="n">Criterion</th><th>Verdict</th></tr></thead>
 <tbody>{{range .Quality}}<tr><td>{{.Check}}</td><td class="muted">{{.Applies}}</td><td class="n">{{.Value}}</td><td class="n">{{.Limit}}</td><td><span class="chip {{.Verdict.Class}}">{{.Verdict.Text}}</span></td></tr>{{end}}</tbody>
 </table>
+{{- if .LabChecks}}
+<ul class="small checks">{{range .LabChecks}}<li>{{.Text}} <span class="chip {{.Verdict.Class}}">{{.Verdict.Text}}</span></li>{{end}}</ul>
+{{- end}}
+{{- if .LabReported}}
+<p class="small"><strong>Also reported by the lab, not used in the calculation:</strong> {{.LabReported}}.</p>
+{{- end}}
 <table class="kv"><tbody>{{range .QualitySums}}<tr><td>{{.Key}}</td><td class="v">{{.Value}}</td><td class="u">{{.Unit}}</td></tr>{{end}}</tbody></table>
 {{- if .Equilibrium}}
 <h4>The equilibrium solved</h4>

@@ -121,7 +121,13 @@ type sampleView struct {
 	Quality             []qualityRow
 	QualitySums         []kv
 	QualityFlags        []string
-	Warnings            []string
+	// LabChecks are the checks beyond the quality table (the salinity of a
+	// seawater-like water, total hardness, P-alkalinity) in sentences;
+	// LabReported lists what the lab reported that the calculation does
+	// not use, with values and units.
+	LabChecks   []checkLine
+	LabReported string
+	Warnings    []string
 	// SpeciationError is why the equilibrium of the sample could not be
 	// computed, and SpeciationErrorDetail what that leaves out; both are
 	// empty for a computed sample.

@@ -25,6 +25,18 @@ type OtherValue struct {
 	Value  string // the cell as written, trimmed
 }
 
+// Label returns the name of the measurement (its usual name where the
+// column is a known one, else the column's label) and the unit of the
+// column's header ("" when the header has none): "Turbidity [NTU]" gives
+// "turbidity" and "NTU".
+func (o OtherValue) Label() (name, unit string) {
+	label, unit, _ := splitHeader(o.Column)
+	if o.Name != "" {
+		return o.Name, unit
+	}
+	return label, unit
+}
+
 // labColumns maps a header label, folded by fieldKey, to the laboratory
 // measurement it names, for the measurements a water laboratory commonly
 // reports that the equilibrium does not use. Total hardness and
@@ -161,13 +173,48 @@ const (
 	pAlkSlack = 2.0
 )
 
-// checkLab adds the data-quality flags of the lab measurements that are
-// not used in the equilibrium: total hardness against Ca + Mg as CaCO3,
-// and P-alkalinity against the total (M-) alkalinity and the pH.
+// LabCheckKind names a check of a laboratory measurement the equilibrium
+// does not use (LabCheck).
+type LabCheckKind int
+
+// The lab-measurement checks, in the order Quality runs them.
+const (
+	// HardnessCheck holds the reported total hardness against Ca + Mg as
+	// CaCO3 (Standard Methods 2340 B, hardness by calculation).
+	HardnessCheck LabCheckKind = iota + 1
+	// PAlkalinityCheck holds the P-alkalinity against the total (M-)
+	// alkalinity, which it cannot exceed.
+	PAlkalinityCheck
+	// PAlkalinityPHCheck holds the P-alkalinity against the pH: a water
+	// below the phenolphthalein end point (pH 8.3) has none.
+	PAlkalinityPHCheck
+)
+
+// LabCheck is the outcome of one check of a laboratory measurement that
+// the equilibrium does not use (Quality.Lab). Value is the lab's
+// measurement, mg/L as CaCO3; Against what it is held against: Ca + Mg as
+// CaCO3 (mg/L) for HardnessCheck, the total alkalinity (mg/L as CaCO3)
+// for PAlkalinityCheck, the pH for PAlkalinityPHCheck. Limit says in words
+// what passes. A check that fails also has its flag in Quality.Flags.
+type LabCheck struct {
+	Kind           LabCheckKind
+	Value, Against float64
+	Limit          string
+	Pass           bool
+}
+
+// checkLab runs the checks of the lab measurements that are not used in
+// the equilibrium, where the lab reported them: total hardness against
+// Ca + Mg as CaCO3, and P-alkalinity against the total (M-) alkalinity and
+// the pH. Each check that ran is listed in q.Lab; each that fails adds a
+// flag.
 func (q *Quality) checkLab(a Analysis) {
 	if th := a.TotalHardness; !math.IsNaN(th) && (a.Measured[Ca] || a.Measured[Mg]) {
 		caMg := AsCaCO3(2 * (a.Totals[Ca] + a.Totals[Mg]) * a.WaterPerLitre)
-		if math.Abs(th-caMg) > hardnessTolerance*math.Max(th, caMg)+hardnessSlack {
+		pass := !(math.Abs(th-caMg) > hardnessTolerance*math.Max(th, caMg)+hardnessSlack)
+		q.Lab = append(q.Lab, LabCheck{Kind: HardnessCheck, Value: th, Against: caMg, Pass: pass,
+			Limit: fmt.Sprintf("within %.0f %% of the larger, plus %.0f mg/L as CaCO3", 100*hardnessTolerance, hardnessSlack)})
+		if !pass {
 			q.Flags = append(q.Flags, fmt.Sprintf(
 				"total hardness %.0f mg/L as CaCO3 differs from Ca + Mg (%.0f mg/L as CaCO3) by more than %.0f %%: a hardness, Ca or Mg value may be in error",
 				th, caMg, 100*hardnessTolerance))
@@ -177,13 +224,24 @@ func (q *Quality) checkLab(a Analysis) {
 	if math.IsNaN(p) {
 		return
 	}
-	if m := a.AlkalinityAsCaCO3(); !math.IsNaN(m) && p > m+pAlkSlack {
-		q.Flags = append(q.Flags, fmt.Sprintf(
-			"P-alkalinity %.0f mg/L as CaCO3 exceeds the total (M-) alkalinity %.0f: one of them is in error", p, m))
+	if m := a.AlkalinityAsCaCO3(); !math.IsNaN(m) {
+		pass := p <= m+pAlkSlack
+		q.Lab = append(q.Lab, LabCheck{Kind: PAlkalinityCheck, Value: p, Against: m, Pass: pass,
+			Limit: fmt.Sprintf("not above the total alkalinity, %.0f mg/L as CaCO3 allowed", pAlkSlack)})
+		if !pass {
+			q.Flags = append(q.Flags, fmt.Sprintf(
+				"P-alkalinity %.0f mg/L as CaCO3 exceeds the total (M-) alkalinity %.0f: one of them is in error", p, m))
+		}
 	}
-	if !math.IsNaN(a.PH) && p > pAlkSlack && a.PH < phenolphthaleinPH-pAlkPHSlack {
-		q.Flags = append(q.Flags, fmt.Sprintf(
-			"P-alkalinity %.0f mg/L as CaCO3 at pH %.2f: a water below pH %.1f (the phenolphthalein end point) has none; the pH or the P-alkalinity is in error",
-			p, a.PH, phenolphthaleinPH))
+	if !math.IsNaN(a.PH) {
+		pass := p <= pAlkSlack || a.PH >= phenolphthaleinPH-pAlkPHSlack
+		q.Lab = append(q.Lab, LabCheck{Kind: PAlkalinityPHCheck, Value: p, Against: a.PH, Pass: pass,
+			Limit: fmt.Sprintf("none below pH %.1f (the phenolphthalein end point is pH %.1f), %.0f mg/L as CaCO3 allowed",
+				phenolphthaleinPH-pAlkPHSlack, phenolphthaleinPH, pAlkSlack)})
+		if !pass {
+			q.Flags = append(q.Flags, fmt.Sprintf(
+				"P-alkalinity %.0f mg/L as CaCO3 at pH %.2f: a water below pH %.1f (the phenolphthalein end point) has none; the pH or the P-alkalinity is in error",
+				p, a.PH, phenolphthaleinPH))
+		}
 	}
 }

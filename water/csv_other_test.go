@@ -128,3 +128,42 @@ func TestTransformDropsLabValues(t *testing.T) {
 		t.Errorf("blend keeps lab values: %+v %g %g", b.Other, b.TotalHardness, b.PAlkalinity)
 	}
 }
+
+// TestQualityLabChecks: every lab check that ran is listed with what it
+// compared and its outcome, on the invented Kestrel Fen export. Ca + Mg as
+// CaCO3 is the hardness by calculation 2.497 Ca + 4.118 Mg (Standard
+// Methods 2340 B, from memory): 80 and 12 mg/L give 249.2, 240 and 36 give
+// 747.5.
+func TestQualityLabChecks(t *testing.T) {
+	records, _, err := csvReadFile(t, "testdata/lab/kestrel_fen_lab.csv", water.ReadOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	const tolCaCO3 = 0.5 // mg/L as CaCO3: the handbook factors are rounded to 4 figures
+	type want struct {
+		kind           water.LabCheckKind
+		value, against float64
+		pass           bool
+	}
+	for i, wants := range [][]want{
+		{{water.HardnessCheck, 250, 249.2, true}, {water.PAlkalinityCheck, 0, 180, true}, {water.PAlkalinityPHCheck, 0, 7.9, true}},
+		{{water.HardnessCheck, 180, 747.5, false}, {water.PAlkalinityCheck, 0, 540, true}, {water.PAlkalinityPHCheck, 0, 8.1, true}},
+		{{water.PAlkalinityCheck, 20, 540, true}, {water.PAlkalinityPHCheck, 20, 7.6, false}}, // no hardness reported
+		{{water.HardnessCheck, 750, 747.5, true}, {water.PAlkalinityCheck, 150, 120, false}, {water.PAlkalinityPHCheck, 150, 8.6, true}},
+	} {
+		a := records[i].Analysis
+		got := a.Quality().Lab
+		if len(got) != len(wants) {
+			t.Errorf("%s: %d lab checks %+v, want %d", a.Name, len(got), got, len(wants))
+			continue
+		}
+		for j, w := range wants {
+			g := got[j]
+			if g.Kind != w.kind || math.Abs(g.Value-w.value) > tolCaCO3 || math.Abs(g.Against-w.against) > tolCaCO3 ||
+				g.Pass != w.pass || g.Limit == "" {
+				t.Errorf("%s: check %d = %+v, want kind %d, %g against %g ± %g, pass %v, with its limit in words",
+					a.Name, j, g, w.kind, w.value, w.against, tolCaCO3, w.pass)
+			}
+		}
+	}
+}

@@ -155,6 +155,10 @@ type Quality struct {
 	// Checks lists every criterion of QualityCriteria that applies, in that
 	// order, with its outcome; checks lacking data have Done false.
 	Checks []QualityCheck
+	// Lab lists the checks of the lab measurements the equilibrium does
+	// not use (total hardness, P-alkalinity) that ran, in the order of
+	// LabCheckKind; none when the lab reported neither.
+	Lab []LabCheck
 	// Flags are plain-language notes where a check fails, data are missing,
 	// the ionic-strength estimates disagree by more than 30 %, or the ionic
 	// strength is beyond the range of the conductivity calculation.
