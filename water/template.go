@@ -3,9 +3,10 @@ package water
 // TemplateHeader returns the header of a starter wide-form CSV: one column
 // for each sample field the reader knows (name, date, role, system,
 // temperature, pH and the temperature it was measured at, dissolved solids,
-// conductivity, comment) and one for each analyte of the table, each with
-// the unit a laboratory usually reports it in (mg/L; mg/L as CaCO3 for
-// alkalinity and hardness).
+// conductivity, comment), one for each analyte of the table and one for
+// each lab measurement of CheckColumns (total hardness, P-alkalinity),
+// each with the unit a laboratory usually reports it in (mg/L; mg/L as
+// CaCO3 for alkalinity and hardness).
 //
 // Each component appears once, in its usual form (SiO2 for silica, PO4 for
 // phosphate, SO4 for sulfate, NO3 for nitrate, NH4 for ammonium, alkalinity
@@ -20,7 +21,34 @@ func TemplateHeader() []string {
 			head = append(head, a.Name+" ["+templateUnit(a)+"]")
 		}
 	}
+	for _, c := range CheckColumns() {
+		head = append(head, c.Header)
+	}
 	return append(head, "TDS [mg/L]", "conductivity [µS/cm]", "comment")
+}
+
+// CheckColumn is a column of a laboratory measurement that the equilibrium
+// does not use but that the analysis is checked against (Quality.Lab).
+type CheckColumn struct {
+	Header  string   // with its usual unit, e.g. "total hardness [mg/L as CaCO3]"
+	Aliases []string // other names the reader accepts for it
+	Note    string   // what it is used for, in words
+}
+
+// CheckColumns returns the columns of the lab measurements the reader
+// reads as numbers for the data-quality checks only: total hardness and
+// P-alkalinity, both in mg/L as CaCO3 as labs report them (Standard
+// Methods 2340 and 2320, from memory). Another concentration unit in the
+// header is read by the unit rules of the Ca-hardness and alkalinity rows
+// of data/analytes.csv. The values are kept and passed through like any
+// column the equilibrium does not use.
+func CheckColumns() []CheckColumn {
+	return []CheckColumn{
+		{Header: "total hardness [mg/L as CaCO3]", Aliases: []string{"hardness", "TH", "hardness total"},
+			Note: "used only for data-quality checks (against Ca + Mg)"},
+		{Header: "P-alkalinity [mg/L as CaCO3]", Aliases: []string{"P-alk", "phenolphthalein alkalinity"},
+			Note: "used only for data-quality checks (against the total alkalinity and the pH)"},
+	}
 }
 
 // ColumnForm is one analyte column the reader accepts: its header with the

@@ -96,7 +96,8 @@ func newTemplateCmd() *cobra.Command {
   scalerisk template --list`,
 		Long: "template writes the header of a starter file in the wide form: one row per sample, the\n" +
 			"sample fields (name, date, role, system, temperature, pH and the temperature it was measured\n" +
-			"at) and one column per analyte in its usual form and unit. Fill one row per sample; leave a\n" +
+			"at), one column per analyte in its usual form and unit, and total hardness and P-alkalinity\n" +
+			"(mg/L as CaCO3; used only to check the analysis). Fill one row per sample; leave a\n" +
 			"cell blank when it was not measured and write <0.1 for below the detection limit. Units go in\n" +
 			"brackets and may be changed (mg/L, µg/L, mmol/L, meq/L, mol/kg, ppm, mg/L as CaCO3, …).\n" +
 			"--list prints every other form a column may take (SiO2 or Si, PO4 or PO4-P, alkalinity or\n" +
@@ -106,6 +107,9 @@ func newTemplateCmd() *cobra.Command {
 			if list {
 				for _, f := range water.ColumnForms() {
 					fmt.Fprintf(cmd.OutOrStdout(), "%-30s %s\n", f.Header, strings.Join(f.Aliases, ", "))
+				}
+				for _, c := range water.CheckColumns() {
+					fmt.Fprintf(cmd.OutOrStdout(), "%-30s %s; %s\n", c.Header, strings.Join(c.Aliases, ", "), c.Note)
 				}
 				return nil
 			}

@@ -2,6 +2,7 @@ package main
 
 import (
 	"math"
+	"regexp"
 	"strings"
 	"testing"
 )
@@ -119,7 +120,8 @@ func TestTemplateCommand(t *testing.T) {
 	cols := strings.Split(head, ",")
 	row := make([]string, len(cols))
 	fill := map[string]string{"name": "Kestrel Fen trial bore", "temperature [C]": "18", "pH": "7.5",
-		"Ca [mg/L]": "55", "Na [mg/L]": "25", "Cl [mg/L]": "38", "SO4 [mg/L]": "40", "alkalinity [mg/L as CaCO3]": "150"}
+		"Ca [mg/L]": "55", "Na [mg/L]": "25", "Cl [mg/L]": "38", "SO4 [mg/L]": "40", "alkalinity [mg/L as CaCO3]": "150",
+		"total hardness [mg/L as CaCO3]": "140", "P-alkalinity [mg/L as CaCO3]": "0"}
 	for i, c := range cols {
 		row[i] = fill[c]
 	}
@@ -127,8 +129,10 @@ func TestTemplateCommand(t *testing.T) {
 	if !strings.Contains(r.stdout, "Kestrel Fen trial bore") || strings.Contains(r.stderr, "unknown") {
 		t.Errorf("template row not assessed cleanly:\nstdout %.300s\nstderr %s", r.stdout, r.stderr)
 	}
-	if l := mustRun(t, 0, "", "template", "--list").stdout; !strings.Contains(l, "PO4-P [mg/L]") {
-		t.Errorf("template --list lacks the other forms:\n%s", l)
+	if l := mustRun(t, 0, "", "template", "--list").stdout; !strings.Contains(l, "PO4-P [mg/L]") ||
+		!regexp.MustCompile(`(?m)^total hardness \[mg/L as CaCO3\] .*used only for data-quality checks`).MatchString(l) ||
+		!regexp.MustCompile(`(?m)^P-alkalinity \[mg/L as CaCO3\] .*used only for data-quality checks`).MatchString(l) {
+		t.Errorf("template --list lacks the other forms or the checked lab columns with their note:\n%s", l)
 	}
 }
 
