@@ -61,8 +61,8 @@ func signed(x float64, n int) string {
 	return s
 }
 
-// plural words a count with its noun: "1 sample", "3 samples".
-func plural(n int, one, many string) string {
+// Plural words a count with its noun: "1 sample", "3 samples".
+func Plural(n int, one, many string) string {
 	if n == 1 {
 		return "1 " + one
 	}

@@ -103,7 +103,7 @@ func (b *builder) section(index int, s *plan.Sample) sampleView {
 
 	sv.Minerals, sv.MineralsOmitted = b.mineralRows(s)
 	sv.OmittedNote = fmt.Sprintf("The other %s of the thermodynamic table %s undersaturated or slow to form; "+
-		"all are listed in the methods.", plural(sv.MineralsOmitted, "mineral", "minerals"), isAre(sv.MineralsOmitted))
+		"all are listed in the methods.", Plural(sv.MineralsOmitted, "mineral", "minerals"), isAre(sv.MineralsOmitted))
 
 	sw := b.sweeps(s)
 	sv.Facts = b.facts(s, sw)

@@ -95,13 +95,13 @@ func (b *builder) timeCharts(ts *timeSeries) ([]chartView, string) {
 	slices.SortStableFunc(names, func(x, y string) int { return cmp.Compare(len(ts.series[y]), len(ts.series[x])) })
 	note := ""
 	if len(names) > maxTimeCharts {
-		note = fmt.Sprintf("%s with dated samples %s not charted.", plural(len(names)-maxTimeCharts, "further water", "further waters"),
+		note = fmt.Sprintf("%s with dated samples %s not charted.", Plural(len(names)-maxTimeCharts, "further water", "further waters"),
 			isAre(len(names)-maxTimeCharts))
 		names = names[:maxTimeCharts]
 	}
 	if ts.undated > 0 {
 		note = strings.TrimSpace(note + fmt.Sprintf(" %s could not be read as dates (year-month-day) and %s left out.",
-			plural(ts.undated, "sample date", "sample dates"), isAre(ts.undated)))
+			Plural(ts.undated, "sample date", "sample dates"), isAre(ts.undated)))
 	}
 	var views []chartView
 	for i, name := range names {

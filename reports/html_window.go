@@ -206,7 +206,7 @@ func (b *builder) windowView(id string, s *plan.Sample) (chartView, string, bool
 	note := ""
 	if w.Failed > 0 {
 		note = fmt.Sprintf("%s: %s of %d could not be computed and %s left blank.", title,
-			plural(w.Failed, "point", "points"), len(w.Margin), isAre(w.Failed))
+			Plural(w.Failed, "point", "points"), len(w.Margin), isAre(w.Failed))
 	}
 	return chartView{ID: id, Title: title, Caption: caption, Height: wc.height()}, note, true
 }

@@ -223,7 +223,7 @@ func (hw *HTMLWriter) view() (*pageView, error) {
 	v.numberParts(len(v.Sections))
 	v.Methods = b.methods()
 	v.ChartCount = len(options)
-	v.ChartCountText = plural(len(options), "chart", "charts")
+	v.ChartCountText = Plural(len(options), "chart", "charts")
 	v.DetailNote = detailNote(len(v.Overview), len(v.Overview)-v.NotDetailed)
 	v.LimitingNote = b.limitingNote()
 	v.LimitsNote = b.limitsNote()
@@ -278,9 +278,9 @@ func detailNote(computed, shown int) string {
 	}
 	if shown == 1 {
 		return fmt.Sprintf("The table lists the samples worst first. A full section follows for the sample of highest risk; "+
-			"the other %s %s in this table only.", plural(computed-shown, "sample", "samples"), isAre(computed-shown))
+			"the other %s %s in this table only.", Plural(computed-shown, "sample", "samples"), isAre(computed-shown))
 	}
 	return fmt.Sprintf("The table lists the samples worst first. Full sections follow for the %s of highest risk; "+
-		"the other %s %s in this table only.", plural(shown, "sample", "samples"), plural(computed-shown, "sample", "samples"),
+		"the other %s %s in this table only.", Plural(shown, "sample", "samples"), Plural(computed-shown, "sample", "samples"),
 		isAre(computed-shown))
 }

@@ -165,7 +165,7 @@ func (o *reportOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) 
 		return outputError(err)
 	}
 	if o.output != "-" {
-		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %d samples\n", o.output, samples)
+		fmt.Fprintf(cmd.OutOrStdout(), "wrote %s: %s\n", o.output, reports.Plural(samples, "sample", "samples"))
 	}
 	return r.exit()
 }

@@ -215,3 +215,13 @@ func TestReportBlend(t *testing.T) {
 	}
 	mustRun(t, 2, "", "report", "--demo", "--blend-with", demoCSV, "--blend-fraction", "2", "-o", out)
 }
+
+// TestReportOneSample: the line naming the written file counts one sample
+// in the singular.
+func TestReportOneSample(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "report.html")
+	r := mustRun(t, exitOK, "", "report", "testdata/kestrel_fen_seawater.csv", "-o", out, "--date", "none")
+	if !strings.Contains(r.stdout, "wrote "+out+": 1 sample\n") {
+		t.Errorf("stdout = %q, want the file and \"1 sample\"", r.stdout)
+	}
+}
