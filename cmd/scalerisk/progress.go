@@ -8,6 +8,8 @@ import (
 	"time"
 
 	"golang.org/x/term"
+
+	"scalerisk/reports"
 )
 
 // isTerminal reports whether w is a terminal (a person is watching).
@@ -79,7 +81,7 @@ func (p *progress) done() {
 	}
 	p.shown = now
 	rate := float64(p.samples) / elapsed.Seconds()
-	line := fmt.Sprintf("%d samples, %.0f/s", p.samples, rate)
+	line := fmt.Sprintf("%s, %.0f/s", reports.Plural(p.samples, "sample", "samples"), rate)
 	if read := p.read.Load(); p.total > 0 && read > 0 {
 		f := min(float64(read)/float64(p.total), 1)
 		left := time.Duration(float64(elapsed) * (1 - f) / f).Round(time.Second)
