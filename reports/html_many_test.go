@@ -3,7 +3,9 @@ package reports_test
 import (
 	"bytes"
 	"fmt"
+	"html"
 	"regexp"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -46,13 +48,20 @@ func TestHTMLManySamples(t *testing.T) {
 	if !strings.Contains(page, "Full sections follow for the 5 samples of highest risk; the other 195 samples are in this table only.") {
 		t.Error("the page does not say which samples have a section")
 	}
-	// Worst first: the first rows are the tower water (past a limit), the
-	// last the makeup water (near equilibrium).
-	first := strings.Index(rows, "beyond inhibitor reach")
-	last := strings.LastIndex(rows, "beyond inhibitor reach")
-	near := strings.Index(rows, "near equilibrium")
-	if first < 0 || near < last {
-		t.Error("the summary is not worst first")
+	// Worst first: past an inhibitor's reach, then supersaturated by SI,
+	// then the rest; the tower water (past a limit) heads the table.
+	class := map[string]int{"b-beyond": 3, "b-within": 2, "b-super": 2, "b-slow": 1, "b-near": 1, "b-under": 1}
+	cells := regexp.MustCompile(`(?s)<td class="n">([^<]*)</td><td><span class="chip (b-[a-z]+)">`).FindAllStringSubmatch(rows, -1)
+	if len(cells) != 200 || cells[0][2] != "b-beyond" {
+		t.Fatalf("%d summary rows with a band, the first %v; want 200 headed by one beyond an inhibitor's reach", len(cells), cells[:min(1, len(cells))])
+	}
+	for i := 1; i < len(cells); i++ {
+		a, b := class[cells[i-1][2]], class[cells[i][2]]
+		siA, _ := strconv.ParseFloat(strings.Replace(html.UnescapeString(cells[i-1][1]), "−", "-", 1), 64)
+		siB, _ := strconv.ParseFloat(strings.Replace(html.UnescapeString(cells[i][1]), "−", "-", 1), 64)
+		if b > a || (a == 2 && b == 2 && siB > siA) {
+			t.Fatalf("the summary is not worst first: row %d (%s, SI %s) after row %d (%s, SI %s)", i+1, cells[i][2], cells[i][1], i, cells[i-1][2], cells[i-1][1])
+		}
 	}
 	// The contents name each section with its date.
 	toc := regexp.MustCompile(`(?s)<nav class="toc".*?</nav>`).FindString(page)

@@ -230,7 +230,8 @@ func TestHTMLTreatment(t *testing.T) {
 		t.Fatal(err)
 	}
 	tower := as[1] // the recirculating water: LSI well above 0.5
-	dose, err := saturation.DoseToTarget(tower.Input, h2so4, 0, target, saturation.Options{})
+	// Under the plan's treatment (Davies, below), as the page shows it.
+	dose, err := saturation.DoseToTarget(tower.Input, h2so4, 0, target, saturation.Options{Activity: saturation.Davies})
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -37,7 +37,7 @@ func ExampleSpeciate() {
 	fmt.Printf("calcite SI %+.2f: %s\n", si, saturation.RiskBand("calcite", si))
 	// Output:
 	// at 30 °C: pH 8.14, I 0.0298 mol/kg (pitzer)
-	// calcite SI +1.07: supersaturated – within inhibitor reach
+	// calcite SI +1.14: supersaturated – within inhibitor reach
 }
 
 // ExampleSweep prints results for an invented water.
@@ -57,9 +57,9 @@ func ExampleSweep() {
 		fmt.Printf("%2.0f °C: calcite SI %+.2f\n", p.X, si)
 	}
 	// Output:
-	// 20 °C: calcite SI +1.06
-	// 50 °C: calcite SI +1.10
-	// 80 °C: calcite SI +1.19
+	// 20 °C: calcite SI +1.13
+	// 50 °C: calcite SI +1.17
+	// 80 °C: calcite SI +1.26
 }
 
 // ExampleDoseToTarget prints results for an invented water.
@@ -79,7 +79,7 @@ func ExampleDoseToTarget() {
 	after, _ := d.After.Result.SI("gypsum")
 	fmt.Printf("%.1f mg/L of %g %% sulfuric acid; gypsum SI %+.3f → %+.3f\n", d.Dose, d.Strength, before, after)
 	// Output:
-	// 27.9 mg/L of 93 % sulfuric acid; gypsum SI -0.913 → -0.883
+	// 28.5 mg/L of 93 % sulfuric acid; gypsum SI -0.912 → -0.883
 }
 
 // ExampleMaxCycles prints results for an invented water.

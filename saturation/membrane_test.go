@@ -16,7 +16,9 @@ const kestrelFeed = "name,temperature [C],pH,Ca [mg/L],Mg [mg/L],Na [mg/L],K [mg
 // = 4 times the feed (ASTM D3739, practice.md §4.2) and the membrane
 // surface β = 1.2 times that; CO2 passes the membrane, so the concentrate
 // carbon is 4·(C_T − CO2) + CO2 and its pH rises above the feed's (common
-// practice, practice-2.md).
+// practice, practice-2.md) — by clearly more than rounding (0.1) though
+// well below log10 4, since the CaCO3(0) and MgCO3(0) pairs of the
+// concentrate take part of the added carbonate alkalinity.
 func TestMembraneConcentrate(t *testing.T) {
 	const tol = 1e-9
 	feed := plantWaters(t, kestrelFeed)["RO feed B"]
@@ -42,7 +44,7 @@ func TestMembraneConcentrate(t *testing.T) {
 	if got := c.Bulk.Carbon; math.Abs(got/wantC-1) > 1e-9 {
 		t.Errorf("concentrate carbon %.6g mol/kg, want 4·(C_T − CO2) + CO2 = %.6g", got, wantC)
 	}
-	if !(c.Bulk.PH > fr.PH+0.2) {
+	if !(c.Bulk.PH > fr.PH+0.1) {
 		t.Errorf("concentrate pH %.2f, want above the feed's %.2f (CO2 passes the membrane)", c.Bulk.PH, fr.PH)
 	}
 }

@@ -33,6 +33,6 @@ func ExampleAssess() {
 	fmt.Printf("calcite SI %.2f, median %.2f, 5–95 %%: %.2f to %.2f\n", q.Central, q.Median, q.Low, q.High)
 	fmt.Printf("P(SI > 0) = %.2f; most of the spread from %s\n", q.PPositive, q.Sensitivity.Top())
 	// Output:
-	// calcite SI -0.02, median -0.02, 5–95 %: -0.10 to 0.07
-	// P(SI > 0) = 0.38; most of the spread from pH
+	// calcite SI 0.06, median 0.06, 5–95 %: -0.02 to 0.14
+	// P(SI > 0) = 0.88; most of the spread from pH
 }
