@@ -20,12 +20,13 @@ import (
 )
 
 // The browser test opens reports in headless Chromium from a file URL with
-// the network shut off, and checks what a reader would see: no console
-// message (an error, or a blocked request), and a drawn SVG in every chart
-// container. It saves a screenshot of each report. Chromium comes from
-// Debian's chromium package (.ci/run installs it); where it is absent the
-// test skips, unless SCALERISK_REQUIRE_BROWSER=1 (set by .ci/run) makes
-// that a failure. SCALERISK_CHROMIUM names another binary;
+// the network shut off, and checks what a reader would see, on screen and
+// laid out for print (checkPrinted): no console message (an error, or a
+// blocked request), a drawn SVG in every chart container, and no chart
+// text over another or cut off. It saves a screenshot of each report.
+// Chromium comes from Debian's chromium package (.ci/run installs it);
+// where it is absent the test skips, unless SCALERISK_REQUIRE_BROWSER=1
+// (set by .ci/run) makes that a failure. SCALERISK_CHROMIUM names another binary;
 // SCALERISK_SCREENSHOT_DIR keeps the screenshots (default: the test's
 // temporary directory).
 
@@ -125,6 +126,7 @@ func TestBrowserRendersReports(t *testing.T) {
 				t.Fatal(err)
 			}
 			checkRendered(t, bin, path, tc.want)
+			checkPrinted(t, bin, path, tc.want)
 			shot := filepath.Join(shots, "report-"+tc.name+".png")
 			chromium(t, bin, "file://"+filepath.ToSlash(path), "--hide-scrollbars", "--window-size=1280,2400", "--screenshot="+shot)
 			checkShot(t, shot)
@@ -178,13 +180,15 @@ func checkShot(t *testing.T, shot string) {
 	t.Logf("screenshot: %s", shot)
 }
 
-// measureJS runs in the rendered page once the charts are drawn and writes
-// what it measured into <pre id="measured"> as JSON: for every chart, how
-// many SVG shapes it drew, the pairs of its visible texts whose boxes
-// overlap (by more than 1 px each way), and the texts whose boxes leave the
-// chart's box.
+// measureJS goes into a copy of the page. It defines measureCharts, which
+// measures the charts as they are laid out now and returns JSON: for every
+// chart, how many SVG shapes it drew, the pairs of its visible texts whose
+// boxes overlap (by more than 1 px each way), and the texts whose boxes
+// leave the chart's box (cut off, or over the rest of the page). Once the
+// page has loaded and the charts are drawn it writes the measurements into
+// <pre id="measured">.
 const measureJS = `<script>
-window.addEventListener("load", function () { setTimeout(function () {
+window.measureCharts = function () {
   var out = [];
   var nodes = document.querySelectorAll("div.chart[data-chart]");
   for (var i = 0; i < nodes.length; i++) {
@@ -212,9 +216,12 @@ window.addEventListener("load", function () { setTimeout(function () {
     }
     out.push(rec);
   }
+  return JSON.stringify(out);
+};
+window.addEventListener("load", function () { setTimeout(function () {
   var pre = document.createElement("pre");
   pre.id = "measured";
-  pre.textContent = JSON.stringify(out);
+  pre.textContent = window.measureCharts();
   document.body.appendChild(pre);
 }, 300); });
 </script>`
@@ -236,6 +243,20 @@ var measuredRe = regexp.MustCompile(`<pre id="measured">([^<]*)</pre>`)
 // text over another and none outside its chart.
 func checkRendered(t *testing.T, bin, path string, want []string) {
 	t.Helper()
+	probe := writeProbe(t, path)
+	dom, logs := chromium(t, bin, "file://"+filepath.ToSlash(probe), "--window-size=1280,2000", "--dump-dom")
+	checkConsole(t, logs)
+	m := measuredRe.FindStringSubmatch(dom)
+	if m == nil {
+		t.Fatalf("the page did not report its measurements (%d bytes of DOM)", len(dom))
+	}
+	checkCharts(t, filepath.Base(path), html.UnescapeString(m[1]), want)
+}
+
+// writeProbe writes a copy of the page at path with measureJS at the end of
+// its body and returns the copy's path.
+func writeProbe(t *testing.T, path string) string {
+	t.Helper()
 	raw, err := os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
@@ -246,16 +267,24 @@ func checkRendered(t *testing.T, bin, path string, want []string) {
 	if err := os.WriteFile(probe, []byte(page[:at]+measureJS+page[at:]), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	dom, logs := chromium(t, bin, "file://"+filepath.ToSlash(probe), "--window-size=1280,2000", "--dump-dom")
+	return probe
+}
+
+// checkConsole fails on any console message in Chromium's log.
+func checkConsole(t *testing.T, logs string) {
+	t.Helper()
 	if lines := consoleLine.FindAllString(logs, -1); len(lines) > 0 {
 		t.Errorf("the page logged to the console (an error or a blocked request):\n%s", strings.Join(lines, "\n"))
 	}
-	m := measuredRe.FindStringSubmatch(dom)
-	if m == nil {
-		t.Fatalf("the page did not report its measurements (%d bytes of DOM)", len(dom))
-	}
+}
+
+// checkCharts checks the measurements of measureCharts (JSON) of the page
+// named name: every chart drawn, the wanted ones among them, no chart text
+// over another and none outside its chart.
+func checkCharts(t *testing.T, name, js string, want []string) {
+	t.Helper()
 	var charts []measured
-	if err := json.Unmarshal([]byte(html.UnescapeString(m[1])), &charts); err != nil {
+	if err := json.Unmarshal([]byte(js), &charts); err != nil {
 		t.Fatal(err)
 	}
 	if len(charts) == 0 {
@@ -280,7 +309,7 @@ func checkRendered(t *testing.T, bin, path string, want []string) {
 			t.Errorf("chart %s missing or not drawn", id)
 		}
 	}
-	t.Logf("%s: %d charts drawn and measured", filepath.Base(path), len(drawn))
+	t.Logf("%s: %d charts drawn and measured", name, len(drawn))
 }
 
 // maxDemoPages bounds the printed demo report on A4: a cover and summary

@@ -10,7 +10,8 @@ import (
 
 // TestBrowserRendersRanges: the demo report with draws of the analysis
 // draws its range charts in headless Chromium, with no overlapping labels
-// and no text outside the charts (the checks of TestBrowserRendersReports).
+// and no text outside the charts, on screen and in print (the checks of
+// TestBrowserRendersReports).
 func TestBrowserRendersRanges(t *testing.T) {
 	bin := findChromium(t)
 	r := demoReport(t, demoAssessments(t))
@@ -19,5 +20,7 @@ func TestBrowserRendersRanges(t *testing.T) {
 	if err := reports.WriteHTMLFile(path, r); err != nil {
 		t.Fatal(err)
 	}
-	checkRendered(t, bin, path, []string{"s1-ranges", "s2-ranges", "s3-ranges"})
+	want := []string{"s1-ranges", "s2-ranges", "s3-ranges"}
+	checkRendered(t, bin, path, want)
+	checkPrinted(t, bin, path, want)
 }

@@ -146,8 +146,8 @@ func (pc panelChart) option() (map[string]any, error) {
 		col, row := i%cols, i/cols
 		top := row*panelRowHeight + panelTitleGap
 		grids = append(grids, opts.Grid{
-			Left:   pct(float64(col)*colWidth + 7.5),
-			Width:  pct(colWidth - 10.5),
+			Left:   pct(float64(col)*colWidth + 8.5),
+			Width:  pct(colWidth - 11.5),
 			Top:    fmt.Sprintf("%dpx", top),
 			Height: fmt.Sprintf("%dpx", panelRowHeight-panelTitleGap-panelBottomGap),
 		})

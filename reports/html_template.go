@@ -123,13 +123,14 @@ a { color: var(--accent); }
   h2 { font-size: 15pt; } h3 { font-size: 11.5pt; margin: 10px 0 4px; }
   .facts { margin: 6px 0 2px; gap: 6px; }
   .fact { padding: 4px 8px; } .fact .value { font-size: 11pt; }
-  /* The charts scale to the page: the script gives each SVG a viewBox. */
-  .chart { height: auto !important; }
-  .chart > div { width: 100% !important; height: auto !important; }
-  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: 46mm; }
+  /* The charts scale to the page: the script lays each out for the printed width at the
+     height its max-height allows and gives each SVG a viewBox. */
+  .chart { height: auto !important; max-height: 46mm; }
+  .chart > div { width: 100% !important; height: auto !important; max-height: inherit; }
+  .chart svg { position: static !important; width: 100% !important; height: auto !important; max-height: inherit; }
   /* The map of the operating window is one plot with its legend; the composition is two bars. */
-  .chart[data-chart$="-window"] svg { max-height: 44mm; }
-  .chart[data-chart$="-composition"] svg { max-height: 30mm; }
+  .chart[data-chart$="-window"] { max-height: 44mm; }
+  .chart[data-chart$="-composition"] { max-height: 30mm; }
   /* Short key–value tables: two pairs a line. */
   table.pairs tbody { display: grid; grid-template-columns: minmax(0, 1fr) minmax(0, 1.7fr) max-content minmax(0, 1fr) minmax(0, 1.7fr) max-content; }
   .appendix table.pairs tbody { grid-template-columns: minmax(0, 1.3fr) max-content minmax(0, 1fr) minmax(0, 1.3fr) max-content minmax(0, 1fr); }
@@ -420,22 +421,54 @@ a { color: var(--accent); }
       svg.setAttribute("preserveAspectRatio", "xMinYMin meet");
     }
   }
+  var printing = window.matchMedia ? window.matchMedia("print") : null;
+  // printSize is the size a chart is laid out at in print: its own height,
+  // and the width that, scaled by the viewBox to the printed height (the
+  // chart's max-height in the print style), fills the printed width. The
+  // chart thus has the room in print it has on screen, and no label clashes
+  // with another or is cut off at an edge.
+  function printSize(d) {
+    var width = d.node.getBoundingClientRect().width;
+    var cap = parseFloat(getComputedStyle(d.node).maxHeight);
+    var scale = cap > 0 && cap < d.height ? cap / d.height : 1;
+    return { width: Math.round(width / scale), height: d.height };
+  }
+  // layout lays a chart out for the media the page is shown in now: its
+  // container on screen, the printed page in print. It draws at once, so
+  // the drawing is ready when the page is printed.
+  function layout(d) {
+    if (printing && printing.matches) {
+      d.chart.resize(printSize(d));
+    } else {
+      d.chart.resize({ width: "auto", height: d.height });
+    }
+    d.chart.getZr().flush();
+    fit(d.node);
+  }
   var nodes = document.querySelectorAll("div.chart[data-chart]");
   for (var i = 0; i < nodes.length; i++) {
     var option = options[nodes[i].getAttribute("data-chart")];
     if (!option) { continue; }
-    var chart = echarts.init(nodes[i], null, { renderer: "svg" });
-    chart.setOption(option);
+    var d = { node: nodes[i], height: parseFloat(nodes[i].style.height) };
+    d.chart = echarts.init(nodes[i], null, { renderer: "svg", height: d.height });
+    d.chart.setOption(option);
+    if (printing && printing.matches) { layout(d); }
     fit(nodes[i]);
-    drawn.push({ chart: chart, node: nodes[i] });
+    drawn.push(d);
   }
-  var printing = window.matchMedia ? window.matchMedia("print") : null;
-  function resizeAll() {
-    if (printing && printing.matches) { return; } // the print style scales the drawing
-    for (var j = 0; j < drawn.length; j++) { drawn[j].chart.resize(); fit(drawn[j].node); }
+  function layoutAll() {
+    for (var j = 0; j < drawn.length; j++) { layout(drawn[j]); }
   }
-  window.addEventListener("resize", resizeAll);
-  window.addEventListener("afterprint", resizeAll);
+  window.addEventListener("resize", function () {
+    if (!printing || !printing.matches) { layoutAll(); } // print lays out on the media change
+  });
+  // Printing switches the media to print at the printed width, and back.
+  if (printing && printing.addEventListener) {
+    printing.addEventListener("change", layoutAll);
+  } else if (printing && printing.addListener) {
+    printing.addListener(layoutAll);
+  }
+  window.addEventListener("afterprint", layoutAll);
 })();
 </script>
 </body>
