@@ -319,7 +319,8 @@ func checkCharts(t *testing.T, name, js string, want []string) {
 const maxDemoPages = 1 + 3*3 + 4
 
 // TestBrowserPrintsDemo prints the demo report to PDF as a reader's browser
-// would, counts its pages, and writes screenshots of the first sample's
+// would, counts its pages, checks that no heading is printed apart from
+// what follows it (orphans), and writes screenshots of the first sample's
 // charts for a person to look at.
 func TestBrowserPrintsDemo(t *testing.T) {
 	bin := findChromium(t)
@@ -343,6 +344,12 @@ func TestBrowserPrintsDemo(t *testing.T) {
 	raw, err = os.ReadFile(path)
 	if err != nil {
 		t.Fatal(err)
+	}
+	if words, width := pdfWords(t, pdf); words != nil {
+		for _, o := range orphans(words, width, string(raw)) {
+			t.Errorf("printed demo report: %s", o)
+		}
+		t.Logf("printed demo report: %d headings kept with what follows them", len(headings(string(raw))))
 	}
 	for _, id := range chartIDs(string(raw)) {
 		if !strings.HasPrefix(id, "s1-") {

@@ -115,6 +115,9 @@ a { color: var(--accent); }
   .appendix table.kv td:first-child { width: auto; }
   .appendix table, #methods table { break-inside: auto; page-break-inside: auto; }
   tr { break-inside: avoid; page-break-inside: avoid; }
+  /* A heading keeps the start of what follows it: no break after a heading, none before a
+     table's first two rows, so a heading or a table's head never ends a page or column alone. */
+  tbody > tr:first-child, tbody > tr:nth-child(2) { break-before: avoid; page-break-before: avoid; }
   #methods, #cautions { font-size: 8.5pt; }
   #methods table, #methods p, #methods ul, #cautions li { font-size: 8pt; }
   .appendix figure { break-inside: avoid; }
