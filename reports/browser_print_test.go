@@ -19,8 +19,9 @@ import (
 // each a JSON message ended by a NUL byte), because the command line
 // cannot switch a page to print media. It does what printing does to the
 // page: the report is opened at the width of the window Chromium prints
-// from, then the viewport takes the width of the printed page and the media
-// becomes print. The charts are measured as they are laid out then.
+// from, then the viewport takes the width of the printed page (without
+// scroll bars, as on paper) and the media becomes print. The charts are
+// measured once the page has handled the change to print.
 
 // printWidth is the width of the printed page's content in CSS px: A4,
 // 210 mm, less the page margins of 11 mm each side (the @page rule of the
@@ -129,7 +130,7 @@ func inBrowser(t *testing.T, bin, url string, steps func(d *devtools)) (logs str
 		"--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync",
 		"--disable-default-apps", "--disable-extensions", "--mute-audio",
 		"--host-resolver-rules=MAP * ~NOTFOUND", "--user-data-dir="+t.TempDir(),
-		"--enable-logging=stderr", "--v=0", printWindow, "--remote-debugging-pipe", "about:blank")
+		"--enable-logging=stderr", "--v=0", "--hide-scrollbars", printWindow, "--remote-debugging-pipe", "about:blank")
 	var errOut bytes.Buffer
 	cmd.Stderr = &errOut
 	cmd.ExtraFiles = []*os.File{cmdR, outW} // descriptors 3 and 4
@@ -183,16 +184,19 @@ func checkPrinted(t *testing.T, bin, path string, want []string) {
 	}
 	var js string
 	logs := inBrowser(t, bin, "file://"+filepath.ToSlash(writeProbe(t, path)), func(d *devtools) {
+		// The page's own listener of the print media was added before
+		// this one, so it has run when this one runs.
+		d.eval(`window.printed = new Promise(function (done) {
+  matchMedia("print").addEventListener("change", function (e) { if (e.matches) { done(); } });
+}); "listening"`)
 		d.call("Emulation.setDeviceMetricsOverride", map[string]any{
 			"width": printWidth, "height": 1000, "deviceScaleFactor": 1, "mobile": false})
+		d.eval(fmt.Sprintf(`new Promise(function (done) {
+  (function wait() { if (innerWidth === %d) { done("resized"); } else { setTimeout(wait, 20); } })();
+})`, printWidth))
 		d.call("Emulation.setEmulatedMedia", map[string]any{"media": "print"})
-		// Media changes are reported at the next frame, before its
-		// animation callbacks; measure two frames later.
-		js = d.eval(`new Promise(function (done) {
-  (function wait() {
-    if (!matchMedia("print").matches) { setTimeout(wait, 50); return; }
-    requestAnimationFrame(function () { requestAnimationFrame(function () { done(measureCharts()); }); });
-  })();
+		js = d.eval(`printed.then(function () {
+  return new Promise(function (done) { requestAnimationFrame(function () { done(measureCharts()); }); });
 })`)
 	})
 	checkConsole(t, logs)

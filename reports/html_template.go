@@ -462,10 +462,10 @@ a { color: var(--accent); }
   function layoutAll() {
     for (var j = 0; j < drawn.length; j++) { layout(drawn[j]); }
   }
-  window.addEventListener("resize", function () {
-    if (!printing || !printing.matches) { layoutAll(); } // print lays out on the media change
-  });
   // Printing switches the media to print at the printed width, and back.
+  // A resize lays out for the media too: reading printing.matches there
+  // can take the place of the change event.
+  window.addEventListener("resize", layoutAll);
   if (printing && printing.addEventListener) {
     printing.addEventListener("change", layoutAll);
   } else if (printing && printing.addListener) {
