@@ -43,7 +43,9 @@ type SampleJSON struct {
 	Warnings       []string            `json:"warnings"`
 	Error          *string             `json:"error"`
 	// OtherAnalytes are the laboratory's values the equilibrium does not
-	// use (turbidity, TOC, total hardness …), as written, in file order.
+	// use (turbidity, TOC, free chlorine …), as written, in file order.
+	// Total hardness and P-alkalinity, used in the data-quality checks, are
+	// in Quality.
 	OtherAnalytes []OtherAnalyteJSON `json:"other_analytes,omitempty"`
 }
 
@@ -154,6 +156,12 @@ type QualityJSON struct {
 	SalinityFromEC          *float64 `json:"practical_salinity_from_ec,omitempty"`
 	SalinityFromComposition *float64 `json:"practical_salinity_from_composition,omitempty"`
 	Flags                   []string `json:"flags"`
+	// TotalHardness and PAlkalinity are the lab's total hardness and
+	// P-alkalinity, mg/L as CaCO3, which the equilibrium does not use but
+	// the analysis is checked against (a failed check is among Flags);
+	// left out when the lab gave none.
+	TotalHardness *float64 `json:"total_hardness_mg_per_l_as_caco3,omitempty"`
+	PAlkalinity   *float64 `json:"p_alkalinity_mg_per_l_as_caco3,omitempty"`
 }
 
 // AssessJSON is the whole JSON document of assess.
@@ -184,6 +192,8 @@ func sample(as saturation.Assessment, full bool) SampleJSON {
 	q := as.Quality
 	s.ChargeBalancePercent = optional(q.BalancePercent, func(x float64) float64 { return dec(x, 2) })
 	s.Quality = qualityJSON(q)
+	s.Quality.TotalHardness = optional(as.Input.TotalHardness, func(x float64) float64 { return sig(x, 4) })
+	s.Quality.PAlkalinity = optional(as.Input.PAlkalinity, func(x float64) float64 { return sig(x, 4) })
 	s.BelowDetection = as.Input.BelowDetection
 	s.OtherAnalytes = otherAnalytes(as.Input.Other)
 	s.Warnings = append(s.Warnings, as.Input.Warnings...)

@@ -12,14 +12,15 @@ import (
 )
 
 // assessExtraHeader are the CSV columns of assess after other_analytes:
-// the sample's date (ISO) and role, its data-quality flags, and the risk
-// band of each mineral.
+// the sample's date (ISO) and role, its data-quality flags, the risk band
+// of each mineral, and the lab's total hardness and P-alkalinity (mg/L as
+// CaCO3, used only in the data-quality checks).
 func assessExtraHeader(minerals []string) []string {
 	h := []string{"date", "role", "quality_flags"}
 	for _, m := range minerals {
 		h = append(h, "band_"+m)
 	}
-	return h
+	return append(h, "total_hardness_mg_per_l_as_caco3", "p_alkalinity_mg_per_l_as_caco3")
 }
 
 // assessExtraRow is the row part of assessExtraHeader for one assessment.
@@ -41,7 +42,11 @@ func assessExtraRow(a saturation.Assessment, s SampleJSON, minerals []string) []
 			}
 		}
 	}
-	return append(row, bands...)
+	row = append(row, bands...)
+	if s.Quality == nil {
+		return append(row, "", "")
+	}
+	return append(row, fmtG(s.Quality.TotalHardness), fmtG(s.Quality.PAlkalinity))
 }
 
 // writeSpeciesText writes the speciation table of an assessment (assess

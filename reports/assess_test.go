@@ -162,7 +162,7 @@ func TestCSVColumns(t *testing.T) {
 		t.Fatalf("%d CSV rows, want a header and 3 samples", len(rows))
 	}
 	header := rows[0]
-	want := 9 + 7 + len(water.Components()) + 4 + 3 + 3 + 4 // fixed, 7 indices, totals, 4 minerals, error, warnings, other analytes, date, role, quality flags, 4 bands
+	want := 9 + 7 + len(water.Components()) + 4 + 3 + 3 + 4 + 2 // fixed, 7 indices, totals, 4 minerals, error, warnings, other analytes, date, role, quality flags, 4 bands, hardness and P-alkalinity
 	if len(header) != want {
 		t.Errorf("header has %d columns, want %d: %v", len(header), want, header)
 	}
@@ -172,9 +172,9 @@ func TestCSVColumns(t *testing.T) {
 			t.Errorf("header lacks %q", col)
 		}
 	}
-	if header[0] != "name" || !slices.Equal(header[len(header)-10:], []string{"error", "warnings", "other_analytes", "date", "role", "quality_flags",
-		"band_calcite", "band_gypsum", "band_barite", "band_celestite"}) {
-		t.Errorf("header = %v, want name first and error, warnings, other_analytes, date, role, quality_flags, bands last", header)
+	if header[0] != "name" || !slices.Equal(header[len(header)-12:], []string{"error", "warnings", "other_analytes", "date", "role", "quality_flags",
+		"band_calcite", "band_gypsum", "band_barite", "band_celestite", "total_hardness_mg_per_l_as_caco3", "p_alkalinity_mg_per_l_as_caco3"}) {
+		t.Errorf("header = %v, want name first and error, warnings, other_analytes, date, role, quality_flags, bands, hardness and P-alkalinity last", header)
 	}
 	for i, row := range rows[1:] {
 		if len(row) != len(header) {

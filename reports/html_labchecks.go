@@ -2,6 +2,7 @@ package reports
 
 import (
 	"fmt"
+	"math"
 	"strings"
 
 	"scalerisk/water"
@@ -28,8 +29,9 @@ func verdictChip(pass bool) chip {
 // salinity of a seawater-like water (PSS-78) and the checks of the lab
 // measurements the equilibrium does not use (total hardness, P-alkalinity).
 // A check listed in q but not run (no conductivity for the salinity) says
-// so.
-func labCheckLines(q water.Quality) []checkLine {
+// so, and so does a lab measurement of in that no check could use (a total
+// hardness without calcium or magnesium).
+func labCheckLines(q water.Quality, in water.Analysis) []checkLine {
 	var out []checkLine
 	salinity := water.SalinityCriterion().Name
 	for _, c := range q.Checks {
@@ -62,6 +64,26 @@ func labCheckLines(q water.Quality) []checkLine {
 			continue
 		}
 		out = append(out, checkLine{text, verdictChip(c.Pass)})
+	}
+	return append(out, uncheckedLab(q, in)...)
+}
+
+// uncheckedLab says the total hardness and P-alkalinity of in that no
+// check of q used, with their values.
+func uncheckedLab(q water.Quality, in water.Analysis) []checkLine {
+	ran := map[water.LabCheckKind]bool{}
+	for _, c := range q.Lab {
+		ran[c.Kind] = true
+	}
+	var out []checkLine
+	notChecked := chip{"not checked", "v-none"}
+	if !math.IsNaN(in.TotalHardness) && !ran[water.HardnessCheck] {
+		out = append(out, checkLine{fmt.Sprintf("Total hardness reported by the lab, %s mg/L as CaCO3: not checked, "+
+			"as the analysis gives neither calcium nor magnesium.", sigText(in.TotalHardness, 4)), notChecked})
+	}
+	if !math.IsNaN(in.PAlkalinity) && !ran[water.PAlkalinityCheck] && !ran[water.PAlkalinityPHCheck] {
+		out = append(out, checkLine{fmt.Sprintf("P-alkalinity reported by the lab, %s mg/L as CaCO3: not checked, "+
+			"as the analysis gives neither the total alkalinity nor the pH.", sigText(in.PAlkalinity, 4)), notChecked})
 	}
 	return out
 }

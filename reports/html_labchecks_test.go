@@ -16,7 +16,7 @@ import (
 
 // labAssessments reads an invented lab file, named name in the report,
 // whose only problem is the note on the columns passed through
-// (water.ErrNotUsed).
+// (water.ErrNotUsed), if any.
 func labAssessments(t *testing.T, path, name string) []saturation.Assessment {
 	t.Helper()
 	content, err := os.ReadFile(path)
@@ -88,12 +88,38 @@ func TestReportLabChecks(t *testing.T) {
 		}
 	}
 
-	const reported = "Also reported by the lab, not used in the calculation: P-alkalinity 0 mg/L as CaCO3; " +
-		"total hardness 250 mg/L as CaCO3; turbidity 0.8 NTU; TOC 2.1 mg/L; free chlorine 0.3 mg/L; colour 5 Hazen; Sampled by R. Alder."
+	// Total hardness and P-alkalinity are used in the checks above, so they
+	// are not among the values the calculation does not use.
+	const reported = "Also reported by the lab, not used in the calculation: " +
+		"turbidity 0.8 NTU; TOC 2.1 mg/L; free chlorine 0.3 mg/L; colour 5 Hazen; Sampled by R. Alder."
 	if !strings.Contains(text, reported) {
 		t.Errorf("the makeup's unused lab values are not listed as\n%s", reported)
 	}
-	if n := strings.Count(text, "Also reported by the lab"); n != 4 {
-		t.Errorf("%d lists of unused lab values, want 4 (the sea intake has none)", n)
+	if n := strings.Count(text, "Also reported by the lab"); n != 3 {
+		t.Errorf("%d lists of unused lab values, want 3 (the side stream, with only hardness and P-alkalinity, and the sea intake have none)", n)
+	}
+}
+
+// TestReportLabUnchecked: a total hardness that no check can use (the
+// analysis has no calcium or magnesium) is still shown with the lab
+// checks, said not checked; it is not listed as not used. The water is an
+// invented Kestrel Fen condensate.
+func TestReportLabUnchecked(t *testing.T) {
+	as := assessFile(t, "condensate.csv", []byte("name,temperature [C],pH,Na [mg/L],Cl [mg/L],alkalinity [mg/L as CaCO3],"+
+		"total hardness [mg/L as CaCO3],P-alkalinity [mg/L as CaCO3]\nKestrel Fen condensate,40,8.6,12,5,20,1,4\n"))
+	page := render(t, reports.Report{Samples: reports.ReportSamples(as)})
+	text := strings.Join(strings.Fields(visibleText(page)), " ")
+	checkClientText(t, "unchecked lab value", text)
+	re := regexp.MustCompile(`<li>Total hardness reported by the lab, 1 mg/L as CaCO3: not checked, as the analysis gives neither calcium nor magnesium\.` +
+		`[^<]*<span class="chip v-none">not checked</span></li>`)
+	if !re.MatchString(page) {
+		t.Error("the hardness no check could use is not shown as not checked")
+	}
+	if !strings.Contains(text, "P-alkalinity reported by the lab, 4 mg/L as CaCO3, against the total alkalinity, 20;") ||
+		strings.Contains(text, "P-alkalinity reported by the lab, 4 mg/L as CaCO3: not checked") {
+		t.Error("the P-alkalinity check that ran is missing, or said not checked")
+	}
+	if strings.Contains(text, "Also reported by the lab") {
+		t.Error("total hardness or P-alkalinity listed as not used in the calculation")
 	}
 }

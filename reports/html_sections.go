@@ -52,7 +52,7 @@ func (b *builder) sectionTail(sv *sampleView, s *plan.Sample, r *saturation.Resu
 		sv.DetectionNote = detectionWords(b.o.Detection)
 	}
 	sv.Quality, sv.QualitySums, sv.QualityFlags = qualityRows(s.Quality, r)
-	sv.LabChecks, sv.LabReported = labCheckLines(s.Quality), labReported(s.Input.Other)
+	sv.LabChecks, sv.LabReported = labCheckLines(s.Quality, s.Input), labReported(s.Input.Other)
 	sv.Warnings = append(sv.Warnings, s.Input.Warnings...)
 	if r != nil {
 		sv.Warnings = append(sv.Warnings, r.Warnings...)

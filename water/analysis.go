@@ -64,8 +64,9 @@ type Analysis struct {
 	MeasuredConductivity float64
 
 	// Other holds the laboratory's values that the equilibrium does not use
-	// (turbidity, TOC, free chlorine, total hardness …), as written, in file
-	// order; nil when there are none. Read only.
+	// (turbidity, TOC, free chlorine …), as written, in file order; nil when
+	// there are none. Read only. Total hardness and P-alkalinity are not
+	// among them unless a cell is not a number: they are read as numbers.
 	Other []OtherValue
 	// TotalHardness and PAlkalinity are the reported total hardness and
 	// P-alkalinity, mg/L as CaCO3, used only in data-quality checks; NaN
@@ -155,7 +156,7 @@ type Sample struct {
 	Measurements  []Measurement
 	// Other holds the cells of the columns the equilibrium does not use, in
 	// file order; TotalHardness and PAlkalinity (mg/L as CaCO3; NaN when not
-	// given) are two of them read as numbers for data-quality checks.
+	// given) are read as numbers for data-quality checks instead.
 	Other                      []OtherValue
 	TotalHardness, PAlkalinity float64
 	// Uncertainty holds the sample's own standard uncertainties, keyed by

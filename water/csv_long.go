@@ -440,13 +440,16 @@ func (lr *longReader) addTags(g *longSampleGroup, row longRow) bool {
 
 // addOther keeps a row of an analyte the equilibrium does not use in its
 // sample, its value written with the row's qualifier, and notes the analyte
-// for the file's note.
+// for the file's note (not a checked lab measurement: see setOther).
 func (lr *longReader) addOther(g *longSampleGroup, c headerColumn, label, unit string, v cellValue) {
 	c.header = label
 	if unit != "" {
 		c.header += " [" + unit + "]"
 	}
 	g.b.setOther(c, v, lr.rd.table)
+	if c.checked() {
+		return // used by the data-quality checks: not named in the note
+	}
 	if lr.otherSeen == nil {
 		lr.otherSeen = map[string]bool{}
 	}

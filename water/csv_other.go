@@ -9,16 +9,19 @@ import (
 )
 
 // ErrNotUsed marks the note a read gives once per file on the columns it
-// keeps and passes through but does not use in the equilibrium (see
-// OtherValue). The note is an *InputError wrapping ErrNotUsed; it is a
+// keeps and passes through but does not use (see OtherValue; total
+// hardness and P-alkalinity read for the data-quality checks are used, and
+// not named). The note is an *InputError wrapping ErrNotUsed; it is a
 // notice, not a fault: the samples are computed all the same.
 var ErrNotUsed = errors.New("not used in the equilibrium")
 
 // OtherValue is a cell of a column the equilibrium does not use: a common
 // laboratory measurement that is not speciated (turbidity, TOC, free
-// chlorine, total hardness, P-alkalinity, colour …) or a column the reader
-// does not recognise. It is kept as written and passed through to the
-// outputs.
+// chlorine, colour …) or a column the reader does not recognise. It is kept
+// as written and passed through to the outputs. Total hardness and
+// P-alkalinity in a concentration unit are read as numbers for the
+// data-quality checks instead (Analysis.TotalHardness, PAlkalinity): only a
+// cell of theirs that is not a number is an OtherValue.
 type OtherValue struct {
 	Column string // the header as written, e.g. "Turbidity [NTU]"
 	Name   string // the known measurement it names ("turbidity"), or "" when not recognised
@@ -40,8 +43,9 @@ func (o OtherValue) Label() (name, unit string) {
 // labColumns maps a header label, folded by fieldKey, to the laboratory
 // measurement it names, for the measurements a water laboratory commonly
 // reports that the equilibrium does not use. Total hardness and
-// P-alkalinity are also read as numbers for data-quality checks
-// (Analysis.TotalHardness, Analysis.PAlkalinity). The names are the usual
+// P-alkalinity are read as numbers for data-quality checks instead
+// (checkedLab; Analysis.TotalHardness, Analysis.PAlkalinity) where the
+// header's unit is a concentration. The names are the usual
 // ones of Standard Methods (APHA/AWWA/WEF; from memory).
 var labColumns = map[string]string{
 	"totalhardness": "total hardness", "hardness": "total hardness", "th": "total hardness",
@@ -100,16 +104,17 @@ func (rd *reader) classifyOther(label, unit string, hasUnit bool) headerColumn {
 	return c
 }
 
-// setOther keeps the cell of an other column and, for a checked lab
-// measurement, its value in mg/L as CaCO3 (a per-kg unit is taken as per
-// litre: the checks have a 10 % tolerance).
+// setOther keeps the cell of an other column, or for a checked lab
+// measurement (checked) its value in mg/L as CaCO3 (a per-kg unit is taken
+// as per litre: the checks have a 10 % tolerance). A cell of a checked
+// measurement that is not a number is kept as written.
 func (b *sampleBuilder) setOther(c headerColumn, v cellValue, table *AnalyteTable) {
-	b.s.Other = append(b.s.Other, OtherValue{Column: c.header, Name: c.other, Value: cleanText(v.raw)})
-	if c.analyte == nil || v.kind != cellNumber || v.v < 0 {
-		return
+	mol, err := math.NaN(), error(nil)
+	if c.checked() && v.kind == cellNumber && v.v >= 0 {
+		mol, err = c.unit.Amount(*c.analyte, v.v, table)
 	}
-	mol, err := c.unit.Amount(*c.analyte, v.v, table)
-	if err != nil {
+	if math.IsNaN(mol) || err != nil {
+		b.s.Other = append(b.s.Other, OtherValue{Column: c.header, Name: c.other, Value: cleanText(v.raw)})
 		return
 	}
 	switch c.other {
@@ -120,12 +125,17 @@ func (b *sampleBuilder) setOther(c headerColumn, v cellValue, table *AnalyteTabl
 	}
 }
 
+// checked says whether c is a lab measurement read as a number for the
+// data-quality checks (total hardness or P-alkalinity in a concentration
+// unit): used, so not named in the note on the columns passed through.
+func (c headerColumn) checked() bool { return c.kind == fieldOther && c.analyte != nil }
+
 // otherNote returns the once-per-file note on the other columns of cols,
-// or nil when there are none.
+// or nil when there are none (the checked ones are not named).
 func (rd *reader) otherNote(cols []headerColumn, line int) error {
 	var known, unknown []string
 	for _, c := range cols {
-		if c.kind != fieldOther {
+		if c.kind != fieldOther || c.checked() {
 			continue
 		}
 		if c.other != "" {

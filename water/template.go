@@ -40,8 +40,9 @@ type CheckColumn struct {
 // P-alkalinity, both in mg/L as CaCO3 as labs report them (Standard
 // Methods 2340 and 2320, from memory). Another concentration unit in the
 // header is read by the unit rules of the Ca-hardness and alkalinity rows
-// of data/analytes.csv. The values are kept and passed through like any
-// column the equilibrium does not use.
+// of data/analytes.csv. They are used, so a file with them gets no note
+// on columns passed through for them (Analysis.Other lists only a cell of
+// theirs that is not a number).
 func CheckColumns() []CheckColumn {
 	return []CheckColumn{
 		{Header: "total hardness [mg/L as CaCO3]", Aliases: []string{"hardness", "TH", "hardness total"},

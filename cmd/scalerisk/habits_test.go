@@ -114,7 +114,9 @@ func exampleArgs(line string) []string {
 }
 
 // TestTemplateCommand: the starter file the template command writes is read
-// by assess once a row is filled in (the header alone holds no sample).
+// by assess once a row is filled in (the header alone holds no sample),
+// with no note: its total hardness and P-alkalinity are used (data-quality
+// checks), not passed through; a turbidity column added is noted.
 func TestTemplateCommand(t *testing.T) {
 	head := strings.TrimSpace(mustRun(t, 0, "", "template").stdout)
 	cols := strings.Split(head, ",")
@@ -126,8 +128,15 @@ func TestTemplateCommand(t *testing.T) {
 		row[i] = fill[c]
 	}
 	r := mustRun(t, 0, head+"\n"+strings.Join(row, ",")+"\n", "assess", "-", "--format", "json")
-	if !strings.Contains(r.stdout, "Kestrel Fen trial bore") || strings.Contains(r.stderr, "unknown") {
-		t.Errorf("template row not assessed cleanly:\nstdout %.300s\nstderr %s", r.stdout, r.stderr)
+	if !strings.Contains(r.stdout, "Kestrel Fen trial bore") || r.stderr != "" || strings.Contains(r.stdout, "other_analytes") ||
+		!strings.Contains(r.stdout, `"total_hardness_mg_per_l_as_caco3":140`) {
+		t.Errorf("template row not assessed cleanly (no note, no other analytes, the hardness with the quality):\nstdout %.300s\nstderr %s", r.stdout, r.stderr)
+	}
+	// A column the reader does not use is still named, once.
+	r = mustRun(t, 0, head+",Turbidity [NTU]\n"+strings.Join(row, ",")+",0.8\n", "assess", "-", "--format", "json")
+	if n := strings.Count(r.stderr, "kept and passed through"); n != 1 || !strings.Contains(r.stderr, `"Turbidity [NTU]" kept and passed through`) ||
+		strings.Contains(r.stderr, "hardness") {
+		t.Errorf("template row with turbidity: stderr %q, want one note naming turbidity alone", r.stderr)
 	}
 	if l := mustRun(t, 0, "", "template", "--list").stdout; !strings.Contains(l, "PO4-P [mg/L]") ||
 		!regexp.MustCompile(`(?m)^total hardness \[mg/L as CaCO3\] .*used only for data-quality checks`).MatchString(l) ||

@@ -12,19 +12,27 @@ import (
 // free chlorine, colour, total hardness, P- and M-alkalinity and a column
 // the reader does not know is assessed without editing: every sample is
 // computed (exit 0), the columns are named once on stderr as not used in
-// the equilibrium, and the values come through in JSON and CSV.
+// the equilibrium, and the values come through in JSON and CSV. Total
+// hardness and P-alkalinity are used (in the data-quality checks): they
+// are not named on stderr nor among other_analytes, and come through with
+// the quality.
 func TestLabExport(t *testing.T) {
 	const file = "testdata/kestrel_fen_lab.csv"
 	r := mustRun(t, 0, "", "assess", file, "--format", "json")
-	if n := strings.Count(r.stderr, "not used in the equilibrium"); n != 1 || !strings.Contains(r.stderr, `"Turbidity [NTU]"`) {
-		t.Errorf("stderr names the other columns %d times, want once:\n%s", n, r.stderr)
+	if n := strings.Count(r.stderr, "not used in the equilibrium"); n != 1 || !strings.Contains(r.stderr, `"Turbidity [NTU]"`) ||
+		strings.Contains(r.stderr, "hardness") || strings.Contains(r.stderr, "P-alkalinity") {
+		t.Errorf("stderr names the other columns %d times, want once, without the checked hardness and P-alkalinity:\n%s", n, r.stderr)
 	}
 	var doc struct {
 		Samples []struct {
 			Name          string
 			Error         *string
 			OtherAnalytes []struct{ Column, Name, Value string } `json:"other_analytes"`
-			Quality       struct{ Flags []string }
+			Quality       struct {
+				Flags         []string
+				TotalHardness *float64 `json:"total_hardness_mg_per_l_as_caco3"`
+				PAlkalinity   *float64 `json:"p_alkalinity_mg_per_l_as_caco3"`
+			}
 		}
 	}
 	if err := json.Unmarshal([]byte(r.stdout), &doc); err != nil {
@@ -34,16 +42,27 @@ func TestLabExport(t *testing.T) {
 		t.Fatalf("%d samples, want 4", len(doc.Samples))
 	}
 	first := doc.Samples[0]
-	if first.Error != nil || len(first.OtherAnalytes) != 7 || first.OtherAnalytes[2].Column != "Turbidity [NTU]" ||
-		first.OtherAnalytes[2].Name != "turbidity" || first.OtherAnalytes[2].Value != "0.8" {
+	if first.Error != nil || len(first.OtherAnalytes) != 5 || first.OtherAnalytes[0].Column != "Turbidity [NTU]" ||
+		first.OtherAnalytes[0].Name != "turbidity" || first.OtherAnalytes[0].Value != "0.8" {
 		t.Errorf("first sample: error %v, other_analytes %+v", first.Error, first.OtherAnalytes)
+	}
+	if q := first.Quality; q.TotalHardness == nil || *q.TotalHardness != 250 || q.PAlkalinity == nil || *q.PAlkalinity != 0 {
+		t.Errorf("first sample: quality total hardness %v, P-alkalinity %v; want 250 and 0 as in the file", q.TotalHardness, q.PAlkalinity)
 	}
 	if flags := strings.Join(doc.Samples[1].Quality.Flags, "\n"); !strings.Contains(flags, "total hardness 180 mg/L as CaCO3 differs from Ca + Mg") {
 		t.Errorf("tower A: no hardness flag in\n%s", flags)
 	}
 	csvOut := mustRun(t, 0, "", "assess", file, "--format", "csv").stdout
-	if !strings.Contains(csvOut, "Turbidity [NTU]=0.8; TOC [mg/L]=2.1") {
-		t.Errorf("CSV lacks the other analytes:\n%s", csvOut)
+	if !strings.Contains(csvOut, "Turbidity [NTU]=0.8; TOC [mg/L]=2.1") || strings.Contains(csvOut, "hardness [mg/L as CaCO3]=") {
+		t.Errorf("CSV lacks the other analytes, or lists the checked hardness among them:\n%s", csvOut)
+	}
+	rows, err := csv.NewReader(strings.NewReader(csvOut)).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	th, pa := slices.Index(rows[0], "total_hardness_mg_per_l_as_caco3"), slices.Index(rows[0], "p_alkalinity_mg_per_l_as_caco3")
+	if th < 0 || pa < 0 || rows[1][th] != "250" || rows[1][pa] != "0" || rows[3][th] != "" || rows[3][pa] != "20" {
+		t.Errorf("CSV hardness and P-alkalinity columns at %d and %d, want 250, 0 (makeup) and blank, 20 (tower B):\n%s", th, pa, csvOut)
 	}
 }
 
@@ -158,8 +177,9 @@ func TestLabExportWhole(t *testing.T) {
 	if makeup.Date != "2026-02-03 09:15" || sea.Date != "2026-02-14" {
 		t.Errorf("dates %q and %q, want 2026-02-03 09:15 and 2026-02-14", makeup.Date, sea.Date)
 	}
-	if len(makeup.OtherAnalytes) != 7 || len(sea.OtherAnalytes) != 4 {
-		t.Errorf("other analytes %+v and %+v, want 7 and 4", makeup.OtherAnalytes, sea.OtherAnalytes)
+	if len(makeup.OtherAnalytes) != 5 || len(sea.OtherAnalytes) != 3 {
+		t.Errorf("other analytes %+v and %+v, want 5 and 3 (total hardness and P-alkalinity are checked, not passed through)",
+			makeup.OtherAnalytes, sea.OtherAnalytes)
 	}
 	if !sea.Quality.Seawater || len(sea.Quality.Flags) != 0 {
 		t.Errorf("sea intake: seawater %v, flags %q; want seawater-like and no flag", sea.Quality.Seawater, sea.Quality.Flags)
