@@ -9,6 +9,7 @@ import (
 	"os"
 	"os/exec"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 	"time"
@@ -172,7 +173,8 @@ func inBrowser(t *testing.T, bin, url string, steps func(d *devtools)) (logs str
 // checkPrinted lays the page at path out as Chromium prints it and checks
 // its charts as checkRendered does on screen: every chart drawn, the wanted
 // ones among them, no chart text over another, none cut off at the chart's
-// edge, and no console message.
+// edge, and no console message. Back on screen afterwards, every chart must
+// have the layout it had before printing.
 func checkPrinted(t *testing.T, bin, path string, want []string) {
 	t.Helper()
 	raw, err := os.ReadFile(path)
@@ -182,23 +184,54 @@ func checkPrinted(t *testing.T, bin, path string, want []string) {
 	if !strings.Contains(string(raw), pageRule) {
 		t.Fatalf("the report's page rule is not %q: compute printWidth again", pageRule)
 	}
-	var js string
+	var js, before, after string
 	logs := inBrowser(t, bin, "file://"+filepath.ToSlash(writeProbe(t, path)), func(d *devtools) {
-		// The page's own listener of the print media was added before
-		// this one, so it has run when this one runs.
-		d.eval(`window.printed = new Promise(function (done) {
-  matchMedia("print").addEventListener("change", function (e) { if (e.matches) { done(); } });
-}); "listening"`)
+		before = d.eval(layoutJS)
+		screen := d.eval(`String(innerWidth)`)
 		d.call("Emulation.setDeviceMetricsOverride", map[string]any{
 			"width": printWidth, "height": 1000, "deviceScaleFactor": 1, "mobile": false})
-		d.eval(fmt.Sprintf(`new Promise(function (done) {
-  (function wait() { if (innerWidth === %d) { done("resized"); } else { setTimeout(wait, 20); } })();
-})`, printWidth))
+		d.eval(waitWidthJS(strconv.Itoa(printWidth)))
+		d.eval(mediaChangeJS(true))
 		d.call("Emulation.setEmulatedMedia", map[string]any{"media": "print"})
-		js = d.eval(`printed.then(function () {
+		js = d.eval(`mediaChanged.then(function () {
   return new Promise(function (done) { requestAnimationFrame(function () { done(measureCharts()); }); });
+})`)
+		// Back to the screen: the window's width, then the media.
+		d.call("Emulation.clearDeviceMetricsOverride", nil)
+		d.eval(waitWidthJS(screen))
+		d.eval(mediaChangeJS(false))
+		d.call("Emulation.setEmulatedMedia", map[string]any{"media": ""})
+		after = d.eval(`mediaChanged.then(function () {
+  return new Promise(function (done) { requestAnimationFrame(function () { done(` + layoutJS + `); }); });
 })`)
 	})
 	checkConsole(t, logs)
 	checkCharts(t, fmt.Sprintf("%s in print, %d px wide", filepath.Base(path), printWidth), js, want)
+	if after != before {
+		t.Errorf("%s: back on screen the charts are not laid out as before printing:\nbefore %s\nafter  %s", filepath.Base(path), before, after)
+	}
+}
+
+// layoutJS gives the size of every chart's drawing, as JSON.
+const layoutJS = `JSON.stringify([].map.call(document.querySelectorAll("div.chart[data-chart] svg"),
+  function (s) { return s.getAttribute("width") + "x" + s.getAttribute("height"); }))`
+
+// waitWidthJS waits until the page's viewport is width px wide (a script
+// number) and two frames more, so that the page has handled the resize.
+func waitWidthJS(width string) string {
+	return `new Promise(function (done) {
+  (function wait() {
+    if (innerWidth !== ` + width + `) { setTimeout(wait, 20); return; }
+    requestAnimationFrame(function () { requestAnimationFrame(function () { done("resized"); }); });
+  })();
+})`
+}
+
+// mediaChangeJS sets window.mediaChanged to a promise kept when the print
+// media starts (print) or ends. The page's own listener of the print media
+// was added before this one, so it has run when this one runs.
+func mediaChangeJS(print bool) string {
+	return `window.mediaChanged = new Promise(function (done) {
+  matchMedia("print").addEventListener("change", function (e) { if (e.matches === ` + strconv.FormatBool(print) + `) { done(); } });
+}); "listening"`
 }
