@@ -213,7 +213,7 @@ func writeBlendText(b *strings.Builder, o BlendOutcome) {
 		return
 	}
 	p := r.Point
-	where := fmt.Sprintf("at %.3g °C", p.Governing)
+	where := fmt.Sprintf("at %.1f °C", p.Governing)
 	if p.Skin != nil && p.Governing == p.Skin.Temperature {
 		where = fmt.Sprintf("at the %g °C skin (bulk pH held)", p.Skin.Temperature)
 	}
@@ -222,7 +222,7 @@ func writeBlendText(b *strings.Builder, o BlendOutcome) {
 		skin = fmt.Sprintf(" and at the %g °C skin", p.Skin.Temperature)
 	}
 	if p.Within() {
-		fmt.Fprintf(b, "  Under the %s profile this blend holds every limit at %.3g °C%s.\n", r.Profile.Name, p.Result.Temperature, skin)
+		fmt.Fprintf(b, "  Under the %s profile this blend holds every limit at %.1f °C%s.\n", r.Profile.Name, p.Result.Temperature, skin)
 	} else {
 		fmt.Fprintf(b, "  Under the %s profile this blend is past the limit for %s, %s.\n", r.Profile.Name, quantityLabel(p.Limiting), where)
 	}
@@ -259,7 +259,7 @@ func writeShareText(b *strings.Builder, o BlendOutcome) {
 			verdict = "past " + quantityLabel(p.Limiting)
 		}
 		if !math.IsInf(p.Excess, -1) {
-			at = fmt.Sprintf("%.3g °C", p.Governing)
+			at = fmt.Sprintf("%.1f °C", p.Governing)
 		}
 		fmt.Fprintf(b, "  %8.2f  %6.2f  %6s  %-34s  %s\n", p.Fraction, p.Result.PH, siText(p.Indices.LSI), verdict, at)
 	}

@@ -111,11 +111,13 @@ func JudgeBlend(a, b water.Analysis, fraction float64, profile LimitProfile, opt
 	bp := &blendProblem{sp: NewSpeciator(opt.Model), fixed: fixed, profile: profile, opt: opt}
 	bp.skin = skinOf(math.Max(bp.bulkAt(0), bp.bulkAt(1)), opt)
 	res := &BlendResult{Profile: profile, Fraction: fraction}
-	res.Share = bp.search()
+	// The requested blend first, under the options as given: the search
+	// may pin the activity model for its grid (gridPoints).
 	res.Point = bp.judged(bp.eval(fraction), fraction)
 	if res.Point.Err != nil {
 		return nil, res.Point.Err
 	}
+	res.Share = bp.search()
 	res.Water = res.Point.Result.Analysis
 	res.Limits = limitMargins(profile, res.Point.Result, res.Point.Indices, res.Point.Skin, res.Point.SkinIndices, bp.skin)
 	return res, nil

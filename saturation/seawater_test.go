@@ -116,7 +116,10 @@ const tolOmega = 0.05
 // aragonite SI of S = 35 seawater of fixed alkalinity and inorganic carbon
 // follow log Ω of the stoichiometric constants (Lueker et al. 2000, Mucci
 // 1983) within tolOmega at 5–35 °C, and heating from 5 to 35 °C raises the
-// calcite SI (the stoichiometric constants give +0.04).
+// calcite SI (the stoichiometric constants give +0.04; the model +0.008,
+// so in effect this checks the direction). The set's MgCO3(0) constant is
+// fitted to these constants at 25 °C (data/pitzer.csv), so 25 °C is not
+// an independent point: the other temperatures and aragonite are.
 func TestSeawaterCalciteSaturation(t *testing.T) {
 	sp := NewSpeciator(nil)
 	var first, last, firstRef, lastRef float64
@@ -154,7 +157,7 @@ func TestSeawaterCalciteSaturation(t *testing.T) {
 // 0.42), so brackish seawater reads 0.03–0.07 low at 5–25 °C (0.10 at 35 °C)
 // (DEVELOPERS.md, known limits).
 func TestSeawaterSalinityCalcite(t *testing.T) {
-	const tolBrackish = 0.12
+	const tolBrackish = 0.12 // the gap measured when it was listed (0.10 at 35 °C) and 0.02 more, to catch it widening
 	sp := NewSpeciator(nil)
 	for _, S := range []float64{20, 27, 35, 43} {
 		for _, tc := range []float64{5, 15, 25} {

@@ -85,8 +85,8 @@ func (o *blendOptions) run(cmd *cobra.Command, args []string, stdin io.Reader) e
 		return &exitError{code: exitInternal, err: err}
 	}
 	r := &runner{stderr: cmd.ErrOrStderr()}
-	for _, e := range []error{as.Err, out.Err} {
-		if e != nil {
+	for i, e := range []error{as.Err, out.Err} {
+		if e != nil && !(i == 1 && as.Err != nil) { // a blend that cannot be speciated fails both: say it once
 			fmt.Fprintln(r.stderr, reports.SafeText(e.Error()))
 			r.failures++
 		}
