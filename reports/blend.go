@@ -111,17 +111,7 @@ func blendJSON(o BlendOutcome) blendSampleJSON {
 func blendLimitsJSON(r *saturation.BlendResult) *BlendLimitsJSON {
 	p := r.Point
 	return &BlendLimitsJSON{Profile: r.Profile.Name, Within: p.Within(), Limiting: p.Limiting, Limits: limitMarginsJSON(r.Limits),
-		JudgementJSON: judgementJSON(pointJudgement(p), "")}
-}
-
-// pointJudgement is the judgement of one blend point: its bulk and skin
-// temperatures and the one that governs its verdict.
-func pointJudgement(p saturation.BlendPoint) saturation.Judgement {
-	j := saturation.Judgement{Bulk: p.Result.Temperature, Skin: math.NaN(), AtBulk: math.NaN(), AtSkin: math.NaN(), Governing: p.Governing}
-	if p.Skin != nil {
-		j.Skin = p.Skin.Temperature
-	}
-	return j
+		JudgementJSON: judgementJSON(p.Judgement(), "")}
 }
 
 // safeFractionJSON is the safe share of the first water and its search.
@@ -214,7 +204,7 @@ func writeBlendText(b *strings.Builder, o BlendOutcome) {
 	}
 	p := r.Point
 	where := fmt.Sprintf("at %.1f °C", p.Governing)
-	if p.Skin != nil && p.Governing == p.Skin.Temperature {
+	if p.Judgement().SkinGoverns() {
 		where = fmt.Sprintf("at the %g °C skin (bulk pH held)", p.Skin.Temperature)
 	}
 	skin := ""

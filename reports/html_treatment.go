@@ -238,7 +238,7 @@ func (b *builder) blendView(bl plan.Blend) blendView {
 func blendVerdict(j *saturation.BlendResult) string {
 	p := j.Point
 	where := fmt.Sprintf("at the water's own temperature (%s °C)", num(p.Result.Temperature, 0))
-	if p.Skin != nil && p.Governing == p.Skin.Temperature {
+	if p.Judgement().SkinGoverns() {
 		where = fmt.Sprintf("at the %s °C tube wall", num(p.Skin.Temperature, 0))
 	}
 	judged := "Judged under " + profileWords(j.Profile.Name)

@@ -203,6 +203,16 @@ func (bp *blendProblem) judged(pt CyclePoint, f float64) BlendPoint {
 	return p
 }
 
+// Judgement is the judgement of one blend point: its bulk and skin
+// temperatures and the one that governs (no per-limit values).
+func (p BlendPoint) Judgement() Judgement {
+	j := Judgement{Bulk: p.Result.Temperature, Skin: math.NaN(), AtBulk: math.NaN(), AtSkin: math.NaN(), Governing: p.Governing}
+	if p.Skin != nil {
+		j.Skin = p.Skin.Temperature
+	}
+	return j
+}
+
 // search finds the safe share of the first water. The axis runs from the
 // water that holds every limit alone at both temperatures: the share of
 // the first water from the second alone, or (swap) the share of the
